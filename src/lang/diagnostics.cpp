@@ -1,0 +1,155 @@
+#include "lang/diagnostics.h"
+
+#include <algorithm>
+
+#include <fmt/format.h>
+
+namespace heatdeck {
+
+Diagnostic& Diagnostics::Error(SourceRange r, std::string message) {
+  ++errors_;
+  list_.push_back(Diagnostic{Severity::kError, r, std::move(message), {}, {}});
+  return list_.back();
+}
+
+Diagnostic& Diagnostics::Warning(SourceRange r, std::string message) {
+  list_.push_back(Diagnostic{Severity::kWarning, r, std::move(message), {}, {}});
+  return list_.back();
+}
+
+std::vector<const Diagnostic*> Diagnostics::Sorted() const {
+  std::vector<const Diagnostic*> v;
+  v.reserve(list_.size());
+  for (const auto& d : list_) v.push_back(&d);
+  std::stable_sort(v.begin(), v.end(), [](const Diagnostic* a, const Diagnostic* b) {
+    if (a->range.file != b->range.file) return a->range.file < b->range.file;
+    if (a->range.line != b->range.line) return a->range.line < b->range.line;
+    return a->range.col < b->range.col;
+  });
+  return v;
+}
+
+std::string_view SourceFiles::Add(std::string name, std::string text) {
+  for (const auto& f : files_) {
+    if (f->name == name) return f->name;
+  }
+  files_.push_back(std::make_unique<File>(File{std::move(name), std::move(text)}));
+  return files_.back()->name;
+}
+
+std::string_view SourceFiles::Text(std::string_view name) const {
+  for (const auto& f : files_) {
+    if (f->name == name) return f->text;
+  }
+  return {};
+}
+
+std::string_view SourceFiles::Line(std::string_view name, int line) const {
+  std::string_view text = Text(name);
+  int current = 1;
+  size_t start = 0;
+  while (current < line) {
+    const size_t nl = text.find('\n', start);
+    if (nl == std::string_view::npos) return {};
+    start = nl + 1;
+    ++current;
+  }
+  size_t end = text.find('\n', start);
+  if (end == std::string_view::npos) end = text.size();
+  std::string_view out = text.substr(start, end - start);
+  if (!out.empty() && out.back() == '\r') out.remove_suffix(1);
+  return out;
+}
+
+namespace {
+
+const char* SeverityWord(Severity s) {
+  switch (s) {
+    case Severity::kError:
+      return "error";
+    case Severity::kWarning:
+      return "warning";
+    case Severity::kNote:
+      return "note";
+  }
+  return "error";
+}
+
+const char* SeverityColour(Severity s) {
+  switch (s) {
+    case Severity::kError:
+      return "\x1b[1;31m";
+    case Severity::kWarning:
+      return "\x1b[1;35m";
+    case Severity::kNote:
+      return "\x1b[1;36m";
+  }
+  return "";
+}
+
+// The source line with a caret under [col, last_col].  Tabs in the prefix are
+// kept so that the caret lines up in a terminal.  Lines longer than 200
+// characters are cut around the span.
+void AppendQuote(std::string& out, std::string_view line, int col, int last_col, bool colour) {
+  if (col < 1) return;
+  size_t begin = 0;
+  std::string_view shown = line;
+  const size_t kMax = 200;
+  if (line.size() > kMax && static_cast<size_t>(col) > kMax / 2) {
+    begin = static_cast<size_t>(col) - kMax / 2;
+    shown = line.substr(begin, kMax);
+  } else if (line.size() > kMax) {
+    shown = line.substr(0, kMax);
+  }
+  out += "  ";
+  out += shown;
+  out += '\n';
+  out += "  ";
+  const size_t caret_at = static_cast<size_t>(col - 1) - begin;
+  for (size_t i = 0; i < caret_at && i < shown.size(); ++i) out += shown[i] == '\t' ? '\t' : ' ';
+  if (colour) out += "\x1b[1;32m";
+  out += '^';
+  const int last = std::max(last_col, col);
+  for (int i = col; i < last && static_cast<size_t>(i) - begin < shown.size(); ++i) out += '~';
+  if (colour) out += "\x1b[0m";
+  out += '\n';
+}
+
+}  // namespace
+
+std::string Render(const Diagnostic& d, const SourceFiles& files, bool colour) {
+  std::string out;
+  if (colour) out += "\x1b[1m";
+  if (!d.range.file.empty()) {
+    out += d.range.valid() ? fmt::format("{}:{}:{}: ", d.range.file, d.range.line, d.range.col)
+                           : fmt::format("{}: ", d.range.file);
+  } else {
+    out += "heatdeck: ";
+  }
+  if (colour) out += "\x1b[0m";
+  if (colour) out += SeverityColour(d.severity);
+  out += SeverityWord(d.severity);
+  out += ":";
+  if (colour) out += "\x1b[0m";
+  out += " ";
+  out += d.message;
+  out += '\n';
+  if (d.range.valid()) {
+    AppendQuote(out, files.Line(d.range.file, d.range.line), d.range.col, d.range.last_col, colour);
+  }
+  for (const auto& [range, text] : d.related) {
+    out += range.valid() ? fmt::format("{}:{}:{}: note: {}\n", range.file, range.line, range.col, text)
+                         : fmt::format("note: {}\n", text);
+    if (range.valid()) {
+      AppendQuote(out, files.Line(range.file, range.line), range.col, range.last_col, colour);
+    }
+  }
+  for (const auto& n : d.notes) {
+    out += "  note: ";
+    out += n;
+    out += '\n';
+  }
+  return out;
+}
+
+}  // namespace heatdeck

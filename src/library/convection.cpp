@@ -1,0 +1,9 @@
+// Family 'convection' of the heat-transfer library (LIBRARY.md).
+#include "library/registry.h"
+
+namespace heatdeck::library {
+
+// Not yet written: registers nothing until this family lands.
+void RegisterConvection(std::vector<FunctionInfo>& /*out*/) {}
+
+}  // namespace heatdeck::library

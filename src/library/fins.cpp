@@ -1,0 +1,9 @@
+// Family 'fins' of the heat-transfer library (LIBRARY.md).
+#include "library/registry.h"
+
+namespace heatdeck::library {
+
+// Not yet written: registers nothing until this family lands.
+void RegisterFins(std::vector<FunctionInfo>& /*out*/) {}
+
+}  // namespace heatdeck::library

@@ -1,0 +1,9 @@
+// Family 'groups' of the heat-transfer library (LIBRARY.md).
+#include "library/registry.h"
+
+namespace heatdeck::library {
+
+// Not yet written: registers nothing until this family lands.
+void RegisterGroups(std::vector<FunctionInfo>& /*out*/) {}
+
+}  // namespace heatdeck::library

@@ -1,0 +1,9 @@
+// Family 'resistance' of the heat-transfer library (LIBRARY.md).
+#include "library/registry.h"
+
+namespace heatdeck::library {
+
+// Not yet written: registers nothing until this family lands.
+void RegisterResistance(std::vector<FunctionInfo>& /*out*/) {}
+
+}  // namespace heatdeck::library

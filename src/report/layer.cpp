@@ -1,0 +1,1 @@
+// Placeholder translation unit; the layer's files land here.
