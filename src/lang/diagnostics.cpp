@@ -138,8 +138,9 @@ std::string Render(const Diagnostic& d, const SourceFiles& files, bool colour) {
     AppendQuote(out, files.Line(d.range.file, d.range.line), d.range.col, d.range.last_col, colour);
   }
   for (const auto& [range, text] : d.related) {
-    out += range.valid() ? fmt::format("{}:{}:{}: note: {}\n", range.file, range.line, range.col, text)
-                         : fmt::format("note: {}\n", text);
+    out += range.valid()
+               ? fmt::format("{}:{}:{}: note: {}\n", range.file, range.line, range.col, text)
+               : fmt::format("note: {}\n", text);
     if (range.valid()) {
       AppendQuote(out, files.Line(range.file, range.line), range.col, range.last_col, colour);
     }
