@@ -7,6 +7,7 @@
 //
 // Operators associate to the left ("J/kg*K" is (J/kg)*K).  ASCII spaces
 // between tokens are ignored.
+#include <algorithm>
 #include <cmath>
 #include <cstddef>
 #include <string>
@@ -23,6 +24,8 @@ namespace {
 // Dimension exponents are int8; anything beyond this is a typo, and the
 // bound keeps every intermediate product far from overflow.
 constexpr int kMaxExponent = 60;
+// Bounds the recursion on hostile input; real units nest two or three deep.
+constexpr int kMaxDepth = 32;
 
 struct Term {
   Dimension dim;
@@ -161,7 +164,7 @@ class Parser {
       return Fail("missing '*' or '/' between units", pos_, 1);
     }
     if (c == '^') return Fail("unexpected '^'", pos_, 1);
-    const size_t n = Utf8Length(c);
+    const size_t n = std::min(Utf8Length(c), text_.size() - pos_);
     return Fail(fmt::format("unexpected character '{}'", text_.substr(pos_, n)), pos_, n);
   }
 
@@ -305,6 +308,7 @@ class Parser {
     const char c = text_[pos_];
     if (c == '(') {
       const size_t open = pos_;
+      if (++depth_ > kMaxDepth) return Fail("parentheses nested too deeply", open, 1);
       ++pos_;
       canon_ += '(';
       SkipSpace();
@@ -313,6 +317,7 @@ class Parser {
       if (AtEnd()) return Fail("unclosed '('", open, 1);
       if (text_[pos_] != ')') return FailUnexpected();
       ++pos_;
+      --depth_;
       canon_ += ')';
       return true;
     }
@@ -334,7 +339,7 @@ class Parser {
       const size_t n = c == ')' || c == '/' || c == '^' ? 1 : MultiplyAt();
       return Fail(fmt::format("expected a unit before '{}'", text_.substr(pos_, n)), pos_, n);
     }
-    const size_t n = Utf8Length(c);
+    const size_t n = std::min(Utf8Length(c), text_.size() - pos_);
     return Fail(fmt::format("unexpected character '{}'", text_.substr(pos_, n)), pos_, n);
   }
 
@@ -375,6 +380,7 @@ class Parser {
   std::string canon_;
   std::string_view last_op_;
   int symbols_ = 0;
+  int depth_ = 0;
   bool compound_ = false;  // an operator, an exponent or a '1' was seen
   bool celsius_like_ = false;
   const UnitDef* last_def_ = nullptr;

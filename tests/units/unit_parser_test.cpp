@@ -1,3 +1,5 @@
+#include <cmath>
+#include <random>
 #include <string>
 #include <string_view>
 
@@ -294,6 +296,41 @@ TEST(UnitParserTest, RangeErrors) {
   ExpectError("(m^40)^2", "exponent too large", 0, 8);
   // 1e24^20 overflows a double.
   ExpectError("Ym^20", "unit factor out of range", 0, 5);
+}
+
+TEST(UnitParserTest, DeepNestingIsAnErrorNotACrash) {
+  const std::string deep = std::string(10000, '(') + "m" + std::string(10000, ')');
+  ExpectError(deep, "parentheses nested too deeply", 32, 1);
+  const std::string ok = std::string(32, '(') + "m" + std::string(32, ')');
+  EXPECT_EQ(Parse(ok).dim, dim::kLength);
+}
+
+// Arbitrary bytes from a fixed-seed generator: every input either parses to a
+// finite, positive factor or fails with a span inside the text.
+TEST(UnitParserTest, ArbitraryInputStaysInBounds) {
+  const std::string alphabet =
+      std::string("mkgsKWPa()*/^-12 %.#degCF") + "\xC2\xB0\xCE\x94\xC2\xB2";
+  std::mt19937 rng(12345);
+  std::uniform_int_distribution<size_t> pick(0, alphabet.size() - 1);
+  std::uniform_int_distribution<int> length(0, 12);
+  int parsed = 0;
+  for (int i = 0; i < 20000; ++i) {
+    std::string text;
+    for (int n = length(rng); n > 0; --n) text += alphabet[pick(rng)];
+    Unit u;
+    UnitError error;
+    if (ParseUnit(text, &u, &error)) {
+      ++parsed;
+      EXPECT_TRUE(std::isfinite(u.factor) && u.factor > 0) << text;
+    } else {
+      EXPECT_FALSE(error.message.empty()) << text;
+      EXPECT_GE(error.offset, 0) << text;
+      EXPECT_GE(error.length, 1) << text;
+      EXPECT_LE(error.offset, static_cast<int>(text.size())) << text;
+      EXPECT_LE(error.offset + error.length, static_cast<int>(text.size()) + 1) << text;
+    }
+  }
+  EXPECT_GT(parsed, 0);
 }
 
 TEST(UnitParserTest, NullErrorPointerIsAllowed) {
