@@ -30,9 +30,12 @@ void AddError(std::vector<TableError>* errors, int line, int column, std::string
 }
 
 // Splits one line into cells.  Unquoted cells are trimmed; a quoted cell may
-// hold commas and "" for a quote.  Problems with quoting are reported and the
-// rest of the line is taken as the cell's text.
-std::vector<Cell> SplitLine(std::string_view line, int line_no, std::vector<TableError>* errors) {
+// hold commas and "" for a quote.  An unterminated quote is reported and
+// makes *ok false: the line's cells then mean nothing, and the caller skips it
+// rather than report errors that follow from the quote.
+std::vector<Cell> SplitLine(std::string_view line, int line_no, std::vector<TableError>* errors,
+                            bool* ok) {
+  *ok = true;
   std::vector<Cell> cells;
   size_t i = 0;
   const size_t n = line.size();
@@ -59,6 +62,7 @@ std::vector<Cell> SplitLine(std::string_view line, int line_no, std::vector<Tabl
       }
       if (!closed) {
         AddError(errors, line_no, static_cast<int>(open) + 1, "unterminated quoted cell");
+        *ok = false;
         cells.push_back(std::move(cell));
         return cells;
       }
@@ -112,8 +116,10 @@ bool ParseHeaderCell(const Cell& cell, int line_no, TableColumn* col,
              fmt::format("header cell '{}': '[' without a closing ']'", text));
     return false;
   }
-  if (!Trim(text.substr(close + 1)).empty()) {
-    AddError(errors, line_no, cell.column + static_cast<int>(close) + 1,
+  size_t after = close + 1;
+  while (after < text.size() && IsSpace(text[after])) ++after;
+  if (after < text.size()) {
+    AddError(errors, line_no, cell.column + static_cast<int>(after),
              fmt::format("header cell '{}': unexpected text after ']'", text));
     return false;
   }
@@ -200,6 +206,7 @@ bool ParseTableCsv(std::string_view text, Table* out, std::vector<TableError>* e
   Table table;
   std::vector<bool> column_ok;  // header cell parsed
   bool have_header = false;
+  bool header_split = false;
   int header_line = 0;
   int data_rows = 0;
   // The previous accepted argument value, for the strictly-increasing check.
@@ -220,10 +227,14 @@ bool ParseTableCsv(std::string_view text, Table* out, std::vector<TableError>* e
     if (end == text.size() && trimmed.empty()) break;  // text ends with a newline or is empty
     if (trimmed.empty() || trimmed.front() == '#') continue;
 
-    std::vector<Cell> cells = SplitLine(line, line_no, errors);
+    bool split_ok = true;
+    std::vector<Cell> cells = SplitLine(line, line_no, errors, &split_ok);
     if (!have_header) {
       have_header = true;
       header_line = line_no;
+      // A header that cannot be split leaves no columns to check rows against.
+      header_split = split_ok;
+      if (!split_ok) continue;
       if (cells.size() < 2) {
         AddError(errors, line_no, cells.empty() ? 1 : cells[0].column,
                  "the header needs an argument column and at least one value column");
@@ -245,12 +256,14 @@ bool ParseTableCsv(std::string_view text, Table* out, std::vector<TableError>* e
     }
 
     ++data_rows;
+    if (!split_ok || !header_split) continue;
     const size_t ncols = table.columns.size();
     if (cells.size() != ncols) {
       const int column =
           cells.size() > ncols ? cells[ncols].column : static_cast<int>(line.size()) + 1;
       AddError(errors, line_no, column,
-               fmt::format("row has {} cells but the header has {} columns", cells.size(), ncols));
+               fmt::format("row has {} cell{} but the header has {} columns", cells.size(),
+                           cells.size() == 1 ? "" : "s", ncols));
     }
     std::vector<double> values(ncols, 0.0);
     bool row_ok = cells.size() == ncols;

@@ -38,7 +38,8 @@ struct TableError {
 // Errors: missing or malformed header, unknown unit, ragged row, a cell that
 // is not a number, fewer than 2 data rows, first column not strictly
 // increasing, duplicate column names.  Collects every error it finds.
-// Returns true when errors is empty.
+// Returns true when it added no error (errors may already hold some from
+// earlier files); *out is written only then.
 bool ParseTableCsv(std::string_view text, Table* out, std::vector<TableError>* errors);
 
 }  // namespace heatdeck::library

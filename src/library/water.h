@@ -22,10 +22,10 @@
 
 namespace heatdeck::library::water {
 
-// IAPWS-IF97 region 1 (IAPWS R7-97(2012), Eq. 7 and Table 3): the Gibbs free
+// IAPWS-IF97 region 1 (IAPWS R7-97(2012), Eq. 7 with Table 2): the Gibbs free
 // energy g(p, T) = R*T*gamma(pi, tau), pi = p/16.53 MPa, tau = 1386 K/T,
 // gamma = sum of 34 terms n_i (7.1 - pi)^I_i (tau - 1.222)^J_i, R = 461.526
-// J/(kg*K).  Properties from its derivatives (R7-97 Table 4).  Meant for
+// J/(kg*K).  Properties from its derivatives (R7-97 Table 3).  Meant for
 // 273.15 K <= T <= 623.15 K, p_sat(T) <= p <= 100 MPa.
 struct Region1 {
   double v;        // specific volume, m^3/kg
@@ -48,9 +48,9 @@ double SaturationTemperature(double p);
 
 // IAPWS 2008 viscosity (IAPWS R12-08, Eq. 10) with the critical factor
 // mu2 = 1: mu = mu0(T) * mu1(rho, T) * 1e-6 Pa*s, T_c = 647.096 K,
-// rho_c = 322 kg/m^3.  R12-08 allows mu2 = 1 for industrial use outside
-// 645.91 K < T < 650.77 K, 245.8 < rho < 405.3 kg/m^3, which the liquid range
-// above never reaches.  Pa*s.
+// rho_c = 322 kg/m^3.  R12-08 finds mu2 significantly different from 1 only
+// within 645.91 K < T < 650.77 K, 245.8 < rho < 405.3 kg/m^3 (from memory),
+// which the liquid range above never reaches.  Pa*s.
 double Viscosity(double rho, double T);
 
 // IAPWS 2011 thermal conductivity (IAPWS R15-11, Eq. 10) without the
@@ -61,7 +61,7 @@ double ConductivityBackground(double rho, double T);
 // a state of density rho, isobaric and isochoric heat capacities cp and cv,
 // viscosity mu and (d rho/d p)_T = drho_dp.  zeta at the reference
 // temperature 1.5 T_c comes from the R15-11 industrial-use polynomial in
-// density (its Eq. 25 and Table 6) rather than from IAPWS-95, which is how
+// density (its Eq. 25) rather than from IAPWS-95, which is how
 // R15-11 pairs the correlation with IAPWS-IF97.
 double ConductivityCriticalEnhancement(double rho, double T, double cp, double cv, double mu,
                                        double drho_dp);
