@@ -1,1 +1,87 @@
-// Placeholder translation unit; the layer's files land here.
+#include "cli/app.h"
+
+#include <ostream>
+
+#include <CLI/CLI.hpp>
+
+#include "cli/options.h"
+
+#ifndef HEATDECK_VERSION
+#define HEATDECK_VERSION "0.0.0"
+#endif
+
+namespace heatdeck::cli {
+
+int Main(const std::vector<std::string>& args, Streams io) {
+  CLI::App app{
+      "heatdeck: heat-exchanger calculation decks, unit-checked, evaluated and written as "
+      "traceable reports.\nResults are for a competent engineer to check; local codes, the "
+      "equipment standards and licensed practice govern."};
+  app.set_version_flag("--version", std::string("heatdeck ") + HEATDECK_VERSION);
+  app.require_subcommand(1);
+  app.fallthrough();
+
+  GlobalOptions g;
+  auto add_deck_options = [&](CLI::App* cmd) {
+    cmd->add_option("--case", g.session.only_case, "Evaluate only this case (base or a case name)");
+    cmd->add_option("--allow-path", g.session.allow_paths,
+                    "A further folder that use and table may read");
+    cmd->add_option("--stdlib", g.session.stdlib_dir, "Folder of templates (default: built in)");
+    cmd->add_option("--date", g.session.date, "Report date (default: meta date)");
+    cmd->add_option("--max-file-size", g.session.max_file_bytes, "Largest file read, in bytes");
+    cmd->add_option("--max-depth", g.session.max_expression_depth, "Deepest expression nesting");
+    cmd->add_option("--max-statements", g.session.max_statements, "Most statements in a deck");
+    cmd->add_option("-j,--jobs", g.jobs, "Threads for sweeps (default: all cores)");
+  };
+
+  std::vector<std::string> decks;
+  auto* check = app.add_subcommand("check", "Check and evaluate decks; write nothing");
+  check->add_option("decks", decks, "Deck files")->required();
+  add_deck_options(check);
+
+  std::string out_dir = "out";
+  std::vector<std::string> formats;
+  auto* run = app.add_subcommand("run", "Evaluate decks and write reports");
+  run->add_option("decks", decks, "Deck files")->required();
+  run->add_option("-o,--out", out_dir, "Output folder, or - for standard output (one format)");
+  run->add_option("-f,--format", formats,
+                  "Formats: html, md, xlsx, json, csv (default: html,xlsx,json)")
+      ->delimiter(',');
+  add_deck_options(run);
+
+  std::string filter;
+  auto* units = app.add_subcommand("units", "List units and their SI factors");
+  units->add_option("filter", filter,
+                    "Show only units whose symbol, name or SI unit contains this");
+
+  std::string fname;
+  auto* functions = app.add_subcommand("functions", "List library functions, or show one");
+  functions->add_option("name", fname, "A function name");
+
+  std::vector<const char*> argv;
+  for (const auto& a : args) argv.push_back(a.c_str());
+  try {
+    app.parse(static_cast<int>(argv.size()), argv.data());
+  } catch (const CLI::CallForHelp&) {
+    io.out << app.help();
+    return kOk;
+  } catch (const CLI::CallForAllHelp&) {
+    io.out << app.help("", CLI::AppFormatMode::All);
+    return kOk;
+  } catch (const CLI::CallForVersion&) {
+    io.out << "heatdeck " << HEATDECK_VERSION << "\n";
+    return kOk;
+  } catch (const CLI::ParseError& e) {
+    io.err << "heatdeck: " << e.what() << "\n";
+    io.err << "Run 'heatdeck --help' for the commands.\n";
+    return kUsage;
+  }
+
+  if (*check) return RunCheck(decks, g, io);
+  if (*run) return RunRun(decks, out_dir, formats, g, io);
+  if (*units) return RunUnits(filter, io);
+  if (*functions) return RunFunctions(fname, io);
+  return kUsage;
+}
+
+}  // namespace heatdeck::cli

@@ -190,3 +190,82 @@ std::string Dump(const Deck& deck) {
 }
 
 }  // namespace heatdeck
+
+namespace heatdeck {
+namespace {
+
+int Precedence(ExprKind k) {
+  switch (k) {
+    case ExprKind::kOr:
+      return 1;
+    case ExprKind::kAnd:
+      return 2;
+    case ExprKind::kNot:
+      return 3;
+    case ExprKind::kLt:
+    case ExprKind::kLe:
+    case ExprKind::kGt:
+    case ExprKind::kGe:
+    case ExprKind::kEq:
+    case ExprKind::kNe:
+      return 4;
+    case ExprKind::kAdd:
+    case ExprKind::kSub:
+      return 5;
+    case ExprKind::kMul:
+    case ExprKind::kDiv:
+      return 6;
+    case ExprKind::kNeg:
+      return 7;
+    case ExprKind::kPow:
+      return 8;
+    default:
+      return 9;
+  }
+}
+
+}  // namespace
+
+std::string Pretty(const Expr& e, const std::function<std::string(const Expr&)>& leaf) {
+  if (leaf) {
+    std::string s = leaf(e);
+    if (!s.empty()) return s;
+  }
+  auto child = [&](const Expr& c, bool right) {
+    std::string s = Pretty(c, leaf);
+    const int pc = Precedence(c.kind), pe = Precedence(e.kind);
+    bool wrap = c.parenthesized && pc < 9;
+    if (pc < pe) wrap = true;
+    if (pc == pe && right && e.kind != ExprKind::kPow && e.kind != ExprKind::kAdd &&
+        e.kind != ExprKind::kMul) {
+      wrap = true;
+    }
+    if (pc == pe && !right && e.kind == ExprKind::kPow) wrap = true;
+    return wrap ? "(" + s + ")" : s;
+  };
+  switch (e.kind) {
+    case ExprKind::kNumber:
+      return e.unit.empty() ? std::string(e.text) : fmt::format("{} {}", e.text, e.unit);
+    case ExprKind::kName:
+      return std::string(e.text);
+    case ExprKind::kCall: {
+      std::string s = fmt::format("{}(", e.text);
+      for (size_t i = 0; i < e.args.size(); ++i) {
+        if (i > 0) s += ", ";
+        s += Pretty(*e.args[i], leaf);
+      }
+      return s + ")";
+    }
+    case ExprKind::kNeg:
+      return "-" + child(*e.args[0], true);
+    case ExprKind::kNot:
+      return "not " + child(*e.args[0], true);
+    case ExprKind::kPow:
+      return child(*e.args[0], false) + "^" + child(*e.args[1], true);
+    default:
+      return fmt::format("{} {} {}", child(*e.args[0], false), OperatorText(e.kind),
+                         child(*e.args[1], true));
+  }
+}
+
+}  // namespace heatdeck

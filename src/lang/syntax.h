@@ -5,6 +5,7 @@
 #pragma once
 
 #include <deque>
+#include <functional>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -134,5 +135,11 @@ struct Deck {
 // expressions fully parenthesised, e.g. `calc Q = ((eps * C_min) * (T_h1 - T_c1)) in kW`.
 std::string Dump(const Deck& deck);
 std::string DumpExpr(const Expr& e);
+
+// The expression as an engineer would write it: operators spaced, only the
+// parentheses precedence needs plus the ones the author wrote.  When leaf is
+// given and returns a non-empty text for a node, that text replaces the
+// node (writers use it to substitute values for names).
+std::string Pretty(const Expr& e, const std::function<std::string(const Expr&)>& leaf = {});
 
 }  // namespace heatdeck

@@ -1,0 +1,71 @@
+// heatdeck's public entry point: load a deck, check it, evaluate it.
+//
+//   heatdeck::Session s;
+//   if (s.Load("cooler.deck", {}) && s.Evaluate()) { /* s.results() */ }
+//   for (auto* d : s.diagnostics().Sorted()) std::cerr << Render(*d, s.files(), false);
+//
+// The pipeline reads top to bottom in Session::Load and Session::Evaluate:
+// lex -> parse -> resolve -> check -> compile -> evaluate.  Writers
+// (report/) take the Results.
+#pragma once
+
+#include <memory>
+#include <string>
+#include <vector>
+
+namespace heatdeck {
+
+class Diagnostics;
+class SourceFiles;
+struct Model;
+struct Results;
+
+struct SessionOptions {
+  // Folders besides the deck's own tree that `use` and `table` may read.
+  std::vector<std::string> allow_paths;
+  // Folder of installed templates; empty: the templates built into the binary.
+  std::string stdlib_dir;
+  // Evaluate only this case ("base" or a case name); empty: all cases.
+  std::string only_case;
+  // Report date; overrides `meta date`.  Never taken from the clock.
+  std::string date;
+  // Limits against hostile input.
+  size_t max_file_bytes = 64u << 20;
+  int max_expression_depth = 200;
+  int max_statements = 1000000;
+};
+
+class Session {
+ public:
+  Session();
+  ~Session();
+  Session(const Session&) = delete;
+  Session& operator=(const Session&) = delete;
+
+  // Reads, parses, resolves and checks a deck file.  Returns false when the
+  // deck has errors (see diagnostics()); nothing has been evaluated then.
+  bool Load(const std::string& path, const SessionOptions& options);
+  // The same for text in memory; `name` is used in diagnostics and as the
+  // folder base for relative paths ("" = current folder).
+  bool LoadText(const std::string& name, std::string text, const SessionOptions& options);
+
+  // Evaluates the base case and every case.  Returns false when a quantity
+  // could not be evaluated (a located error in diagnostics()).  Check
+  // failures are results, not errors.
+  bool Evaluate();
+
+  const Model& model() const;
+  const Results& results() const;
+  const Diagnostics& diagnostics() const;
+  const SourceFiles& files() const;
+
+  // Exit status for `check` and `run` (LANGUAGE.md): 0 all good, 1 a check
+  // failed, 2 the deck has errors.
+  int ExitStatus() const;
+
+ private:
+  struct State;
+  std::unique_ptr<State> s_;
+};
+
+}  // namespace heatdeck

@@ -1,0 +1,97 @@
+#include "eval/files.h"
+
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+
+#include <fmt/format.h>
+#include <openssl/evp.h>
+
+namespace heatdeck {
+
+namespace fs = std::filesystem;
+
+bool ReadWholeFile(const std::string& path, size_t max_bytes, std::string* out, std::string* why) {
+  std::error_code ec;
+  if (!fs::is_regular_file(path, ec)) {
+    *why = fs::exists(path, ec) ? "not a regular file" : "no such file";
+    return false;
+  }
+  const auto size = fs::file_size(path, ec);
+  if (ec) {
+    *why = ec.message();
+    return false;
+  }
+  if (size > max_bytes) {
+    *why = fmt::format(
+        "the file is {} bytes, over the limit of {} bytes (raise it with "
+        "--max-file-size)",
+        size, max_bytes);
+    return false;
+  }
+  std::ifstream in(path, std::ios::binary);
+  if (!in) {
+    *why = "cannot be opened for reading";
+    return false;
+  }
+  std::ostringstream ss;
+  ss << in.rdbuf();
+  *out = ss.str();
+  return true;
+}
+
+std::string Sha256Hex(const std::string& data) {
+  unsigned char digest[EVP_MAX_MD_SIZE];
+  unsigned int len = 0;
+  EVP_Digest(data.data(), data.size(), digest, &len, EVP_sha256(), nullptr);
+  std::string hex;
+  hex.reserve(2 * len);
+  for (unsigned int i = 0; i < len; ++i) hex += fmt::format("{:02x}", digest[i]);
+  return hex;
+}
+
+std::string CanonicalDir(const std::string& dir) {
+  std::error_code ec;
+  fs::path p = fs::canonical(dir.empty() ? fs::path(".") : fs::path(dir), ec);
+  if (ec || !fs::is_directory(p, ec)) return "";
+  return p.string();
+}
+
+namespace {
+
+bool Inside(const fs::path& file, const std::string& dir) {
+  const fs::path d(dir);
+  auto fi = file.begin();
+  for (auto di = d.begin(); di != d.end(); ++di, ++fi) {
+    if (fi == file.end() || *fi != *di) return false;
+  }
+  return true;
+}
+
+}  // namespace
+
+bool ResolveContained(const std::string& base_dir, const std::string& path,
+                      const std::vector<std::string>& allowed, std::string* resolved,
+                      std::string* why) {
+  fs::path p(path);
+  if (p.is_relative()) p = fs::path(base_dir.empty() ? "." : base_dir) / p;
+  std::error_code ec;
+  const fs::path canon = fs::canonical(p, ec);
+  if (ec) {
+    *why = "no such file";
+    return false;
+  }
+  for (const auto& dir : allowed) {
+    if (!dir.empty() && Inside(canon, dir)) {
+      *resolved = canon.string();
+      return true;
+    }
+  }
+  *why = fmt::format(
+      "'{}' lies outside the deck's folder and the template library; "
+      "allow its folder with --allow-path",
+      canon.string());
+  return false;
+}
+
+}  // namespace heatdeck

@@ -1,1 +1,0 @@
-// Placeholder translation unit; the layer's files land here.

@@ -1,0 +1,346 @@
+#include "eval/program.h"
+
+#include <cmath>
+#include <limits>
+
+#include <fmt/format.h>
+#include <muParser.h>
+
+#include "units/unit.h"
+
+namespace heatdeck {
+namespace {
+
+constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+// Relative tolerance of == in checks (LANGUAGE.md: "== within 1e-9 relative").
+constexpr double kEqualTol = 1e-9;
+
+bool NearlyEqual(double a, double b) {
+  return std::fabs(a - b) <= kEqualTol * std::max(std::fabs(a), std::fabs(b));
+}
+
+std::string Num(double v) {
+  const std::string s = units::FormatExact(v);
+  return v < 0 ? "(" + s + ")" : s;
+}
+
+}  // namespace
+
+// A library call site: which function, on behalf of which quantity.
+struct Program::CallSite : library::Sink {
+  const library::FunctionInfo* fn = nullptr;
+  int quantity = -1;
+  Program* program = nullptr;
+
+  void Warning(std::string message) override {
+    program->recorded_.push_back(Recorded{
+        quantity, QuantityMessage{QuantityMessage::Kind::kWarning, std::move(message), {}}});
+  }
+  void Error(std::string message) override {
+    program->library_error_ = true;
+    program->recorded_.push_back(
+        Recorded{quantity, QuantityMessage{QuantityMessage::Kind::kError, std::move(message), {}}});
+  }
+  void Note(const char* static_text) override {
+    program->recorded_.push_back(
+        Recorded{quantity, QuantityMessage{QuantityMessage::Kind::kNote, static_text, {}}});
+  }
+
+  static double Trampoline(void* data, const double* args, int /*n*/) {
+    auto* site = static_cast<CallSite*>(data);
+    return site->fn->fn(args, *site);
+  }
+};
+
+struct Program::Step {
+  int quantity = -1;
+  mu::Parser parser;
+  std::string text;
+  bool constant = false;  // a given: its value is set in the frame, not computed
+};
+
+struct Program::CheckStep {
+  int check = -1;
+  mu::Parser whole;  // the full condition (1 or 0)
+  mu::Parser lhs, rhs;
+  bool sides = false;
+};
+
+// Translates typed expressions to muParser text.  Each variable a parser
+// reads is defined on that parser alone, so compile cost stays linear in the
+// size of the deck.
+class Translator {
+ public:
+  Translator(const Model& m, mu::Parser& p, double* values,
+             std::vector<std::unique_ptr<Program::CallSite>>* sites, Program* program, int quantity,
+             bool strict_equal)
+      : m_(m),
+        p_(p),
+        values_(values),
+        sites_(sites),
+        program_(program),
+        quantity_(quantity),
+        strict_equal_(strict_equal) {}
+
+  std::string Text(const Expr* e) {
+    const ExprInfo& info = m_.Info(e);
+    if (info.literal) return Num(info.si);
+    switch (e->kind) {
+      case ExprKind::kNumber:
+        return Num(info.si);
+      case ExprKind::kName: {
+        if (info.constant >= 0) return Num(info.si);
+        const std::string var = fmt::format("q{}", info.quantity);
+        p_.DefineVar(var, values_ + info.quantity);
+        return var;
+      }
+      case ExprKind::kNeg:
+        return fmt::format("(-{})", Text(e->args[0]));
+      case ExprKind::kNot:
+        return fmt::format("({}==0)", Text(e->args[0]));
+      case ExprKind::kAnd:
+        return fmt::format("({}&&{})", Text(e->args[0]), Text(e->args[1]));
+      case ExprKind::kOr:
+        return fmt::format("({}||{})", Text(e->args[0]), Text(e->args[1]));
+      case ExprKind::kEq:
+      case ExprKind::kNe: {
+        const std::string a = Text(e->args[0]);
+        const std::string b = Text(e->args[1]);
+        if (strict_equal_) return fmt::format("({}{}{})", a, OperatorText(e->kind), b);
+        const std::string near = fmt::format("(abs({0}-{1})<=({2}*max(abs({0}),abs({1}))))", a, b,
+                                             units::FormatExact(kEqualTol));
+        return e->kind == ExprKind::kEq ? near : fmt::format("({}==0)", near);
+      }
+      case ExprKind::kCall:
+        return Call(e, info);
+      default:
+        return fmt::format("({}{}{})", Text(e->args[0]), OperatorText(e->kind), Text(e->args[1]));
+    }
+  }
+
+ private:
+  std::string Args(const Expr* e, size_t from) {
+    std::string s;
+    for (size_t i = from; i < e->args.size(); ++i) {
+      if (i > from) s += ",";
+      s += Text(e->args[i]);
+    }
+    return s;
+  }
+
+  std::string Call(const Expr* e, const ExprInfo& info) {
+    if (info.builtin >= 0) {
+      const BuiltinInfo& b = BuiltinFunctions()[static_cast<size_t>(info.builtin)];
+      if (b.id == Builtin::kIf) {
+        return fmt::format("({}?{}:{})", Text(e->args[0]), Text(e->args[1]), Text(e->args[2]));
+      }
+      if ((b.id == Builtin::kMin || b.id == Builtin::kMax) && e->args.size() == 1) {
+        return Text(e->args[0]);
+      }
+      return fmt::format("{}({})", b.name, Args(e, 0));
+    }
+    // A library function: its own callback name per call site, with the site
+    // as user data, so warnings land on the right quantity.
+    auto site = std::make_unique<Program::CallSite>();
+    site->fn = info.fn;
+    site->quantity = quantity_;
+    site->program = program_;
+    const std::string name = fmt::format("f{}", sites_->size());
+    p_.DefineFunUserData(name, &Program::CallSite::Trampoline, site.get(), false);
+    sites_->push_back(std::move(site));
+    return fmt::format("{}({})", name, Args(e, 0));
+  }
+
+  const Model& m_;
+  mu::Parser& p_;
+  double* values_;
+  std::vector<std::unique_ptr<Program::CallSite>>* sites_;
+  Program* program_;
+  int quantity_;
+  bool strict_equal_;
+};
+
+Program::Program(const Model& model, std::vector<int> steps)
+    : model_(model), steps_idx_(std::move(steps)), values_(model.quantities.size(), kNaN) {
+  Build();
+}
+
+Program::~Program() = default;
+
+std::unique_ptr<Program> Program::Clone() const {
+  auto p = std::make_unique<Program>(model_, steps_idx_);
+  p->values_ = values_;
+  return p;
+}
+
+void Program::Build() {
+  for (int qi : steps_idx_) {
+    const Quantity& q = model_.quantities[static_cast<size_t>(qi)];
+    auto step = std::make_unique<Step>();
+    step->quantity = qi;
+    if (q.kind != QuantityKind::kCalc) {
+      step->constant = true;
+      steps_.push_back(std::move(step));
+      continue;
+    }
+    Translator t(model_, step->parser, values_.data(), &sites_, this, qi, false);
+    step->text = t.Text(q.expr);
+    step->parser.SetExpr(step->text);
+    steps_.push_back(std::move(step));
+  }
+  for (size_t ci = 0; ci < model_.checks.size(); ++ci) {
+    const CheckDef& c = model_.checks[ci];
+    auto step = std::make_unique<CheckStep>();
+    step->check = static_cast<int>(ci);
+    Translator whole(model_, step->whole, values_.data(), &sites_, this, -1, false);
+    step->whole.SetExpr(whole.Text(c.expr));
+    if (c.has_sides) {
+      step->sides = true;
+      Translator l(model_, step->lhs, values_.data(), &sites_, this, -1, false);
+      step->lhs.SetExpr(l.Text(c.expr->args[0]));
+      Translator r(model_, step->rhs, values_.data(), &sites_, this, -1, false);
+      step->rhs.SetExpr(r.Text(c.expr->args[1]));
+    }
+    checks_.push_back(std::move(step));
+  }
+}
+
+void Program::LoadGivens() {
+  for (size_t i = 0; i < model_.quantities.size(); ++i) {
+    const Quantity& q = model_.quantities[i];
+    if (q.kind == QuantityKind::kGiven) values_[i] = q.given_si;
+  }
+}
+
+std::string Program::ExpressionText(int quantity) const {
+  for (const auto& s : steps_) {
+    if (s->quantity == quantity) return s->text;
+  }
+  return "";
+}
+
+bool Program::Run() {
+  failed_step_ = -1;
+  failure_ = QuantityMessage{};
+  for (auto& s : steps_) {
+    if (s->constant) continue;
+    library_error_ = false;
+    double v = kNaN;
+    try {
+      v = s->parser.Eval();
+    } catch (const mu::Parser::exception_type& e) {
+      failed_step_ = s->quantity;
+      failure_ = QuantityMessage{
+          QuantityMessage::Kind::kError,
+          fmt::format("internal error compiling '{}': {}",
+                      model_.quantities[static_cast<size_t>(s->quantity)].name, e.GetMsg()),
+          {}};
+      return false;
+    }
+    values_[static_cast<size_t>(s->quantity)] = v;
+    if (!std::isfinite(v) || library_error_) {
+      failed_step_ = s->quantity;
+      failure_ = Explain(s->quantity);
+      return false;
+    }
+  }
+  return true;
+}
+
+void Program::RunAll(CaseResult* out) {
+  const size_t n = model_.quantities.size();
+  out->ok.assign(n, true);
+  out->messages.assign(n, {});
+  recorded_.clear();
+  for (auto& s : steps_) {
+    const size_t qi = static_cast<size_t>(s->quantity);
+    if (s->constant) continue;
+    const Quantity& q = model_.quantities[qi];
+    bool inputs_ok = true;
+    for (int d : q.deps) inputs_ok = inputs_ok && out->ok[static_cast<size_t>(d)];
+    if (!inputs_ok) {
+      out->ok[qi] = false;
+      values_[qi] = kNaN;
+      continue;
+    }
+    library_error_ = false;
+    double v = kNaN;
+    try {
+      v = s->parser.Eval();
+    } catch (const mu::Parser::exception_type& e) {
+      out->ok[qi] = false;
+      out->messages[qi].push_back(QuantityMessage{
+          QuantityMessage::Kind::kError, fmt::format("internal error: {}", e.GetMsg()), {}});
+      continue;
+    }
+    values_[qi] = v;
+    if (!std::isfinite(v) || library_error_) {
+      out->ok[qi] = false;
+      values_[qi] = kNaN;
+      if (!library_error_) out->messages[qi].push_back(Explain(s->quantity));
+    }
+  }
+  for (auto& r : recorded_) {
+    if (r.quantity >= 0) out->messages[static_cast<size_t>(r.quantity)].push_back(r.message);
+  }
+  recorded_.clear();
+}
+
+void Program::RunChecks(std::vector<CheckResult>* out, int* failed) const {
+  out->assign(model_.checks.size(), CheckResult{});
+  *failed = 0;
+  for (const auto& s : checks_) {
+    const CheckDef& c = model_.checks[static_cast<size_t>(s->check)];
+    CheckResult& r = (*out)[static_cast<size_t>(s->check)];
+    bool inputs_ok = true;
+    for (int d : c.deps) inputs_ok = inputs_ok && std::isfinite(values_[static_cast<size_t>(d)]);
+    if (!inputs_ok) continue;
+    try {
+      if (s->sides) {
+        r.lhs_si = s->lhs.Eval();
+        r.rhs_si = s->rhs.Eval();
+        if (!std::isfinite(r.lhs_si) || !std::isfinite(r.rhs_si)) continue;
+        const double l = r.lhs_si, h = r.rhs_si;
+        switch (c.expr->kind) {
+          case ExprKind::kLt:
+            r.pass = l < h;
+            r.margin_si = h - l;
+            break;
+          case ExprKind::kLe:
+            r.pass = l <= h;
+            r.margin_si = h - l;
+            break;
+          case ExprKind::kGt:
+            r.pass = l > h;
+            r.margin_si = l - h;
+            break;
+          case ExprKind::kGe:
+            r.pass = l >= h;
+            r.margin_si = l - h;
+            break;
+          case ExprKind::kEq:
+            r.pass = NearlyEqual(l, h);
+            r.margin_si = -std::fabs(l - h);
+            break;
+          case ExprKind::kNe:
+            r.pass = !NearlyEqual(l, h);
+            r.margin_si = std::fabs(l - h);
+            break;
+          default:
+            break;
+        }
+      } else {
+        const double v = s->whole.Eval();
+        if (!std::isfinite(v)) continue;
+        r.pass = v != 0.0;
+      }
+      r.evaluated = true;
+      if (!r.pass) ++*failed;
+    } catch (const mu::Parser::exception_type&) {
+      r.evaluated = false;
+    }
+  }
+}
+
+}  // namespace heatdeck

@@ -1,0 +1,903 @@
+#include "model/builder.h"
+
+#include <algorithm>
+#include <cmath>
+#include <functional>
+#include <set>
+
+#include <fmt/format.h>
+
+#include "lang/parser.h"
+
+namespace heatdeck {
+
+using units::Dimension;
+using units::TempKind;
+
+std::string NearestName(const std::string& word, const std::vector<std::string>& candidates) {
+  const size_t limit = std::max<size_t>(1, word.size() / 3);
+  std::string best;
+  size_t best_d = limit + 1;
+  std::vector<size_t> prev, cur;
+  for (const auto& c : candidates) {
+    if (c.size() > word.size() + limit || word.size() > c.size() + limit) continue;
+    prev.assign(c.size() + 1, 0);
+    cur.assign(c.size() + 1, 0);
+    for (size_t j = 0; j <= c.size(); ++j) prev[j] = j;
+    for (size_t i = 1; i <= word.size(); ++i) {
+      cur[0] = i;
+      for (size_t j = 1; j <= c.size(); ++j) {
+        const size_t sub = prev[j - 1] + (word[i - 1] == c[j - 1] ? 0 : 1);
+        cur[j] = std::min({prev[j] + 1, cur[j - 1] + 1, sub});
+      }
+      std::swap(prev, cur);
+    }
+    if (prev[c.size()] < best_d) {
+      best_d = prev[c.size()];
+      best = c;
+    }
+  }
+  return best_d <= limit ? best : std::string();
+}
+
+namespace {
+
+const char* TempWord(TempKind k) {
+  switch (k) {
+    case TempKind::kAbsolute:
+      return "an absolute temperature";
+    case TempKind::kInterval:
+      return "a temperature difference";
+    default:
+      return "a temperature";
+  }
+}
+
+// A temperature kind for a Θ¹ result that came out of arithmetic.
+TempKind KindFor(const Dimension& d, TempKind k) {
+  if (!d.IsTemperature()) return TempKind::kNone;
+  return k == TempKind::kNone ? TempKind::kEither : k;
+}
+
+class Builder {
+ public:
+  Builder(const BuildOptions& options, std::vector<std::unique_ptr<Deck>>* keep, Diagnostics& d)
+      : options_(options), keep_(keep), diags_(d), model_(std::make_unique<Model>()) {}
+
+  std::unique_ptr<Model> Run(const Deck& deck) {
+    Collect(deck, "");
+    ResolveAll();
+    if (!OrderQuantities()) return std::move(model_);
+    TypeAll();
+    return std::move(model_);
+  }
+
+ private:
+  // ---- collection ---------------------------------------------------------
+
+  struct Scope {
+    std::string prefix;  // "" or "hx."
+  };
+
+  std::string Qualified(const Scope& s, std::string_view name) const {
+    return s.prefix + std::string(name);
+  }
+
+  int AddQuantity(Quantity q) {
+    auto [it, inserted] =
+        model_->by_name.emplace(q.name, static_cast<int>(model_->quantities.size()));
+    if (!inserted) {
+      const Quantity& first = model_->quantities[static_cast<size_t>(it->second)];
+      Diagnostic& d = diags_.Error(q.range, fmt::format("'{}' is defined twice", q.name));
+      d.related.emplace_back(first.range, "first defined here");
+      return -1;
+    }
+    model_->quantities.push_back(std::move(q));
+    return it->second;
+  }
+
+  void AddItem(Section::Item::Kind kind, int index) {
+    if (model_->sections.empty()) model_->sections.push_back(Section{});
+    model_->sections.back().items.push_back(Section::Item{kind, index});
+  }
+
+  int CurrentSection() {
+    if (model_->sections.empty()) model_->sections.push_back(Section{});
+    return static_cast<int>(model_->sections.size()) - 1;
+  }
+
+  void NotYet(const Stmt& s, const char* what) {
+    diags_.Error(
+        SourceRange{
+            s.range.file, s.range.line, s.range.col,
+            s.range.col + static_cast<int>(std::string_view(StmtKeyword(s.kind)).size()) - 1},
+        fmt::format("'{}' ({}) is not available in this version of heatdeck yet",
+                    StmtKeyword(s.kind), what));
+  }
+
+  void Collect(const Deck& deck, const std::string& prefix) {
+    Scope scope{prefix};
+    for (const Stmt& s : deck.stmts) {
+      switch (s.kind) {
+        case StmtKind::kTitle:
+          if (!model_->title.empty()) {
+            diags_.Error(s.range, "the deck has a title already");
+          }
+          model_->title = s.text;
+          break;
+        case StmtKind::kMeta: {
+          const std::string key(s.name);
+          auto it = std::find_if(model_->meta.begin(), model_->meta.end(),
+                                 [&](const auto& kv) { return kv.first == key; });
+          if (it != model_->meta.end()) {
+            diags_.Error(s.name_range, fmt::format("meta '{}' is given twice", key));
+          } else {
+            model_->meta.emplace_back(key, s.text);
+          }
+          break;
+        }
+        case StmtKind::kSection:
+          model_->sections.push_back(Section{s.text, {}});
+          break;
+        case StmtKind::kNarrative:
+          model_->narrative.push_back(s.text);
+          AddItem(Section::Item::Kind::kNarrative, static_cast<int>(model_->narrative.size()) - 1);
+          break;
+        case StmtKind::kGiven:
+        case StmtKind::kCalc: {
+          Quantity q;
+          q.name = Qualified(scope, s.name);
+          q.kind = s.kind == StmtKind::kGiven ? QuantityKind::kGiven : QuantityKind::kCalc;
+          q.stmt = &s;
+          q.expr = s.expr;
+          q.range = s.name_range;
+          q.description = s.attrs.description;
+          q.source = s.attrs.source;
+          q.section = CurrentSection();
+          q.prefix = prefix;
+          const int idx = AddQuantity(std::move(q));
+          if (idx >= 0) {
+            scope_of_[s.expr] = prefix;
+            AddItem(Section::Item::Kind::kQuantity, idx);
+          }
+          break;
+        }
+        case StmtKind::kCheck: {
+          CheckDef c;
+          c.stmt = &s;
+          c.expr = s.expr;
+          c.description = s.attrs.description;
+          c.prefix = prefix;
+          c.section = CurrentSection();
+          scope_of_[s.expr] = prefix;
+          model_->checks.push_back(std::move(c));
+          AddItem(Section::Item::Kind::kCheck, static_cast<int>(model_->checks.size()) - 1);
+          break;
+        }
+        case StmtKind::kPrefer:
+          for (const UnitRef& u : s.units) {
+            units::Unit unit;
+            if (ParseUnitAt(u.text, u.range, &unit)) model_->prefer.push_back(unit);
+          }
+          break;
+        case StmtKind::kCase:
+          NotYet(s, "cases");
+          break;
+        case StmtKind::kSweep:
+          NotYet(s, "sweeps");
+          break;
+        case StmtKind::kSolve:
+          NotYet(s, "solves");
+          break;
+        case StmtKind::kUse:
+          NotYet(s, "templates");
+          break;
+        case StmtKind::kTable:
+          NotYet(s, "property tables");
+          break;
+      }
+    }
+  }
+
+  // Parses a unit written at `range`; reports errors there.
+  bool ParseUnitAt(std::string_view text, SourceRange range, units::Unit* out) {
+    units::UnitError err;
+    if (units::ParseUnit(text, out, &err)) return true;
+    SourceRange r = range;
+    r.col = range.col + err.offset;
+    r.last_col = r.col + std::max(err.length, 1) - 1;
+    diags_.Error(r, err.message);
+    return false;
+  }
+
+  // ---- name resolution ----------------------------------------------------
+
+  std::vector<std::string> CandidateNames(const std::string& prefix) const {
+    std::vector<std::string> v;
+    for (const auto& q : model_->quantities) {
+      if (q.prefix == prefix) v.push_back(q.name.substr(prefix.size()));
+    }
+    for (const auto& c : BuiltinConstants()) v.emplace_back(c.name);
+    return v;
+  }
+
+  std::vector<std::string> CandidateFunctions() const {
+    std::vector<std::string> v;
+    for (const auto& b : BuiltinFunctions()) v.emplace_back(b.name);
+    for (const auto& f : library::Functions()) v.emplace_back(f.name);
+    return v;
+  }
+
+  void ResolveAll() {
+    for (size_t i = 0; i < model_->quantities.size(); ++i) {
+      Quantity& q = model_->quantities[i];
+      std::set<int> deps;
+      Resolve(q.expr, q.prefix, deps);
+      q.deps.assign(deps.begin(), deps.end());
+    }
+    for (CheckDef& c : model_->checks) {
+      std::set<int> deps;
+      Resolve(c.expr, c.prefix, deps);
+      c.deps.assign(deps.begin(), deps.end());
+    }
+  }
+
+  void Resolve(const Expr* e, const std::string& prefix, std::set<int>& deps) {
+    if (e == nullptr) return;
+    ExprInfo& info = model_->info[e];
+    switch (e->kind) {
+      case ExprKind::kNumber:
+        return;
+      case ExprKind::kName: {
+        const std::string name(e->text);
+        const int q = model_->Find(prefix + name);
+        if (q >= 0) {
+          info.quantity = q;
+          deps.insert(q);
+          return;
+        }
+        const auto& consts = BuiltinConstants();
+        for (size_t i = 0; i < consts.size(); ++i) {
+          if (name == consts[i].name) {
+            info.constant = static_cast<int>(i);
+            return;
+          }
+        }
+        Diagnostic& d = diags_.Error(e->range, fmt::format("unknown name '{}'", name));
+        const std::string near = NearestName(name, CandidateNames(prefix));
+        if (!near.empty()) d.notes.push_back(fmt::format("did you mean '{}'?", near));
+        return;
+      }
+      case ExprKind::kCall: {
+        const std::string name(e->text);
+        const auto& builtins = BuiltinFunctions();
+        bool found = false;
+        for (size_t i = 0; i < builtins.size(); ++i) {
+          if (name == builtins[i].name) {
+            info.builtin = static_cast<int>(i);
+            found = true;
+          }
+        }
+        if (!found) info.fn = library::FindFunction(name);
+        if (!found && info.fn == nullptr) {
+          const int q = model_->Find(prefix + name);
+          if (q >= 0) {
+            diags_.Error(e->range, fmt::format("'{}' is a quantity, not a function; write "
+                                               "'{} * (…)' to multiply",
+                                               name, name));
+          } else {
+            Diagnostic& d =
+                diags_.Error(SourceRange{e->range.file, e->range.line, e->range.col,
+                                         e->range.col + static_cast<int>(name.size()) - 1},
+                             fmt::format("unknown function '{}'", name));
+            const std::string near = NearestName(name, CandidateFunctions());
+            if (!near.empty()) d.notes.push_back(fmt::format("did you mean '{}'?", near));
+            d.notes.push_back("'heatdeck functions' lists every function");
+          }
+        }
+        for (const Expr* a : e->args) Resolve(a, prefix, deps);
+        return;
+      }
+      default:
+        for (const Expr* a : e->args) Resolve(a, prefix, deps);
+        return;
+    }
+  }
+
+  // ---- dependency order ---------------------------------------------------
+
+  // Orders quantities so that each comes after what it reads; reports every
+  // cycle with its members.  Iterative (decks may hold 100 000 statements).
+  bool OrderQuantities() {
+    const auto& qs = model_->quantities;
+    const size_t n = qs.size();
+    std::vector<int> state(n, 0);  // 0 new, 1 on stack, 2 done
+    model_->order.reserve(n);
+    bool ok = true;
+    std::vector<std::pair<int, size_t>> stack;
+    for (size_t root = 0; root < n; ++root) {
+      if (state[root] != 0) continue;
+      stack.emplace_back(static_cast<int>(root), 0);
+      state[root] = 1;
+      while (!stack.empty()) {
+        auto& [v, next] = stack.back();
+        const auto& deps = qs[static_cast<size_t>(v)].deps;
+        if (next < deps.size()) {
+          const int w = deps[next++];
+          if (state[static_cast<size_t>(w)] == 0) {
+            state[static_cast<size_t>(w)] = 1;
+            stack.emplace_back(w, 0);
+          } else if (state[static_cast<size_t>(w)] == 1) {
+            ReportCycle(stack, w);
+            ok = false;
+          }
+          continue;
+        }
+        state[static_cast<size_t>(v)] = 2;
+        model_->order.push_back(v);
+        stack.pop_back();
+      }
+    }
+    return ok;
+  }
+
+  void ReportCycle(const std::vector<std::pair<int, size_t>>& stack, int w) {
+    auto it = std::find_if(stack.begin(), stack.end(), [&](const auto& p) { return p.first == w; });
+    std::vector<int> members;
+    for (; it != stack.end(); ++it) members.push_back(it->first);
+    // Report each cycle once, at its member that comes first in the file.
+    std::vector<int> key = members;
+    std::sort(key.begin(), key.end());
+    if (!reported_cycles_.insert(key).second) return;
+    const auto& qs = model_->quantities;
+    std::string path;
+    for (int m : members) path += qs[static_cast<size_t>(m)].name + " -> ";
+    path += qs[static_cast<size_t>(members.front())].name;
+    const int first = *std::min_element(members.begin(), members.end(), [&](int a, int b) {
+      return qs[static_cast<size_t>(a)].range.line < qs[static_cast<size_t>(b)].range.line;
+    });
+    Diagnostic& d = diags_.Error(qs[static_cast<size_t>(first)].range,
+                                 fmt::format("dependency cycle: {}", path));
+    for (int m : members) {
+      const Quantity& q = qs[static_cast<size_t>(m)];
+      d.related.emplace_back(q.range, fmt::format("'{}' is part of the cycle", q.name));
+    }
+  }
+
+  // ---- types ----------------------------------------------------------------
+
+  // How a value is spelled in messages: the unit the deck used for it.
+  std::string UnitWords(const Expr* e) const {
+    const ExprInfo& info = model_->info.at(e);
+    std::string u;
+    if (e->kind == ExprKind::kNumber && !e->unit.empty())
+      u = info.unit.text;
+    else if (e->kind == ExprKind::kName && info.quantity >= 0) {
+      const Quantity& q = model_->quantities[static_cast<size_t>(info.quantity)];
+      if (q.display.dim == info.type.dim) u = q.display.text;
+    }
+    if (u.empty()) u = info.type.dim.SiUnit();
+    return u.empty() ? "a plain number" : u;
+  }
+
+  // Returns the type of e, recording it; bad = an error was reported below
+  // (callers then stay silent to avoid cascades).
+  Type TypeOf(const Expr* e, bool* bad) {
+    ExprInfo& info = model_->info[e];
+    Type t;
+    switch (e->kind) {
+      case ExprKind::kNumber: {
+        info.literal = true;
+        if (!e->unit.empty()) {
+          if (!ParseUnitAt(e->unit, e->unit_range, &info.unit)) {
+            *bad = true;
+            break;
+          }
+          t.dim = info.unit.dim;
+          t.temp = info.unit.kind;
+          info.si = info.unit.ToSi(e->number);
+        } else {
+          info.si = e->number;
+        }
+        break;
+      }
+      case ExprKind::kName: {
+        if (info.quantity >= 0) {
+          const size_t qi = static_cast<size_t>(info.quantity);
+          if (bad_[qi]) *bad = true;
+          t = model_->quantities[qi].type;
+        } else if (info.constant >= 0) {
+          t.dim = BuiltinConstants()[static_cast<size_t>(info.constant)].dim;
+          info.si = BuiltinConstants()[static_cast<size_t>(info.constant)].si;
+        } else {
+          *bad = true;
+        }
+        break;
+      }
+      case ExprKind::kNeg: {
+        t = TypeOf(e->args[0], bad);
+        if (*bad) break;
+        if (e->args[0]->kind == ExprKind::kNumber) {
+          // -5 degC is (-5) degC, not -(5 degC): the sign belongs to the number.
+          const ExprInfo& li = model_->info.at(e->args[0]);
+          info.literal = true;
+          info.unit = li.unit;
+          info.si =
+              e->args[0]->unit.empty() ? -e->args[0]->number : li.unit.ToSi(-e->args[0]->number);
+          break;
+        }
+        if (t.temp == TempKind::kAbsolute) {
+          diags_.Error(e->range, "cannot negate an absolute temperature");
+          *bad = true;
+        }
+        if (!*bad && t.boolean) BoolMisuse(e->args[0], bad);
+        break;
+      }
+      case ExprKind::kAdd:
+      case ExprKind::kSub:
+        t = TypeAddSub(e, bad);
+        break;
+      case ExprKind::kMul:
+      case ExprKind::kDiv: {
+        const Type a = TypeOf(e->args[0], bad);
+        const Type b = TypeOf(e->args[1], bad);
+        if (*bad) break;
+        if (a.boolean) BoolMisuse(e->args[0], bad);
+        if (b.boolean) BoolMisuse(e->args[1], bad);
+        t.dim = e->kind == ExprKind::kMul ? a.dim * b.dim : a.dim / b.dim;
+        t.temp = KindFor(t.dim, TempKind::kNone);
+        break;
+      }
+      case ExprKind::kPow:
+        t = TypePow(e, bad);
+        break;
+      case ExprKind::kCall:
+        t = TypeCall(e, bad);
+        break;
+      case ExprKind::kLt:
+      case ExprKind::kLe:
+      case ExprKind::kGt:
+      case ExprKind::kGe:
+      case ExprKind::kEq:
+      case ExprKind::kNe: {
+        const Type a = TypeOf(e->args[0], bad);
+        const Type b = TypeOf(e->args[1], bad);
+        t.boolean = true;
+        if (*bad) break;
+        if (a.boolean || b.boolean) {
+          BoolMisuse(a.boolean ? e->args[0] : e->args[1], bad);
+          break;
+        }
+        if (!(a.dim == b.dim)) {
+          diags_.Error(e->range, fmt::format("cannot compare {} with {}", UnitWords(e->args[0]),
+                                             UnitWords(e->args[1])));
+          *bad = true;
+        } else if (!TempCompatible(a.temp, b.temp)) {
+          diags_.Error(e->range, fmt::format("cannot compare {} with {}", TempWord(a.temp),
+                                             TempWord(b.temp)));
+          *bad = true;
+        }
+        break;
+      }
+      case ExprKind::kAnd:
+      case ExprKind::kOr:
+      case ExprKind::kNot: {
+        t.boolean = true;
+        for (const Expr* a : e->args) {
+          const Type at = TypeOf(a, bad);
+          if (!*bad && !at.boolean) {
+            diags_.Error(a->range, fmt::format("'{}' needs a comparison on each side",
+                                               OperatorText(e->kind)));
+            *bad = true;
+          }
+        }
+        break;
+      }
+    }
+    info.type = t;
+    return t;
+  }
+
+  void BoolMisuse(const Expr* e, bool* bad) {
+    diags_.Error(e->range,
+                 "a comparison gives true or false, not a value; use if(condition, a, b)");
+    *bad = true;
+  }
+
+  static bool TempCompatible(TempKind a, TempKind b) {
+    if (a == TempKind::kEither || b == TempKind::kEither) return true;
+    return a == b;
+  }
+
+  Type TypeAddSub(const Expr* e, bool* bad) {
+    const Type a = TypeOf(e->args[0], bad);
+    const Type b = TypeOf(e->args[1], bad);
+    Type t;
+    if (*bad) return t;
+    if (a.boolean || b.boolean) {
+      BoolMisuse(a.boolean ? e->args[0] : e->args[1], bad);
+      return t;
+    }
+    const bool add = e->kind == ExprKind::kAdd;
+    if (!(a.dim == b.dim)) {
+      diags_.Error(e->range, fmt::format("cannot {} {} and {}", add ? "add" : "subtract",
+                                         UnitWords(e->args[0]), UnitWords(e->args[1])));
+      *bad = true;
+      return t;
+    }
+    t.dim = a.dim;
+    if (!a.dim.IsTemperature()) return t;
+    using TK = TempKind;
+    const TK x = a.temp, y = b.temp;
+    if (add) {
+      if (x == TK::kAbsolute && y == TK::kAbsolute) {
+        diags_.Error(e->range,
+                     "cannot add two absolute temperatures; for a mean write "
+                     "T_a + (T_b - T_a)/2");
+        *bad = true;
+      } else if (x == TK::kAbsolute || y == TK::kAbsolute) {
+        t.temp = TK::kAbsolute;
+      } else if (x == TK::kInterval && y == TK::kInterval) {
+        t.temp = TK::kInterval;
+      } else {
+        t.temp = TK::kEither;
+      }
+    } else {
+      if (x == TK::kAbsolute && y == TK::kAbsolute)
+        t.temp = TK::kInterval;
+      else if (x == TK::kAbsolute)
+        t.temp = TK::kAbsolute;
+      else if (y == TK::kAbsolute && x == TK::kInterval) {
+        diags_.Error(e->range,
+                     "cannot subtract an absolute temperature from a temperature difference");
+        *bad = true;
+      } else if (y == TK::kAbsolute) {
+        t.temp = TK::kInterval;
+      } else if (x == TK::kInterval && y == TK::kInterval) {
+        t.temp = TK::kInterval;
+      } else {
+        t.temp = TK::kEither;
+      }
+    }
+    return t;
+  }
+
+  // The value of a constant dimensionless expression (numbers and
+  // arithmetic only); false when it is not constant.
+  bool ConstValue(const Expr* e, double* v) const {
+    switch (e->kind) {
+      case ExprKind::kNumber:
+        if (!e->unit.empty()) return false;
+        *v = e->number;
+        return true;
+      case ExprKind::kNeg:
+        if (!ConstValue(e->args[0], v)) return false;
+        *v = -*v;
+        return true;
+      case ExprKind::kAdd:
+      case ExprKind::kSub:
+      case ExprKind::kMul:
+      case ExprKind::kDiv: {
+        double a, b;
+        if (!ConstValue(e->args[0], &a) || !ConstValue(e->args[1], &b)) return false;
+        *v = e->kind == ExprKind::kAdd   ? a + b
+             : e->kind == ExprKind::kSub ? a - b
+             : e->kind == ExprKind::kMul ? a * b
+                                         : a / b;
+        return std::isfinite(*v);
+      }
+      default:
+        return false;
+    }
+  }
+
+  Type TypePow(const Expr* e, bool* bad) {
+    const Type base = TypeOf(e->args[0], bad);
+    const Type ex = TypeOf(e->args[1], bad);
+    Type t;
+    if (*bad) return t;
+    if (base.boolean || ex.boolean) {
+      BoolMisuse(base.boolean ? e->args[0] : e->args[1], bad);
+      return t;
+    }
+    if (!ex.dim.dimensionless()) {
+      diags_.Error(e->args[1]->range, fmt::format("an exponent must be a plain number, not {}",
+                                                  UnitWords(e->args[1])));
+      *bad = true;
+      return t;
+    }
+    if (base.dim.dimensionless()) return t;
+    double p = 0;
+    if (!ConstValue(e->args[1], &p)) {
+      diags_.Error(e->args[1]->range,
+                   fmt::format("{} raised to a variable power has no fixed unit; the exponent "
+                               "must be a constant number",
+                               UnitWords(e->args[0])));
+      *bad = true;
+      return t;
+    }
+    for (int den = 1; den <= 12; ++den) {
+      const double num = p * den;
+      if (std::fabs(num - std::round(num)) < 1e-9 && std::fabs(num) < 100) {
+        if (base.dim.PowRational(static_cast<int>(std::lround(num)), den, &t.dim)) {
+          t.temp = KindFor(t.dim, TempKind::kNone);
+          return t;
+        }
+      }
+    }
+    diags_.Error(e->range, fmt::format("{} raised to {} has no whole-numbered unit",
+                                       UnitWords(e->args[0]), units::FormatExact(p)));
+    *bad = true;
+    return t;
+  }
+
+  Type TypeCall(const Expr* e, bool* bad) {
+    ExprInfo& info = model_->info[e];
+    std::vector<Type> args;
+    bool arg_bad = false;
+    for (const Expr* a : e->args) args.push_back(TypeOf(a, &arg_bad));
+    Type t;
+    if (arg_bad || (info.builtin < 0 && info.fn == nullptr && info.table < 0)) {
+      *bad = true;
+      return t;
+    }
+    const std::string name(e->text);
+    if (info.builtin >= 0) {
+      const BuiltinInfo& b = BuiltinFunctions()[static_cast<size_t>(info.builtin)];
+      const int n = static_cast<int>(args.size());
+      if (n < b.min_args || (b.max_args >= 0 && n > b.max_args)) {
+        diags_.Error(e->range, b.min_args == b.max_args
+                                   ? fmt::format("{} takes {} argument{}, got {}", name, b.min_args,
+                                                 b.min_args == 1 ? "" : "s", n)
+                                   : fmt::format("{} takes at least {} argument, got {}", name,
+                                                 b.min_args, n));
+        *bad = true;
+        return t;
+      }
+      const size_t first_value = b.id == Builtin::kIf ? 1 : 0;
+      if (b.id == Builtin::kIf && !args[0].boolean) {
+        diags_.Error(e->args[0]->range, "the first argument of if is a condition such as a > b");
+        *bad = true;
+        return t;
+      }
+      for (size_t i = first_value; i < args.size(); ++i) {
+        if (args[i].boolean) {
+          BoolMisuse(e->args[i], bad);
+          return t;
+        }
+      }
+      switch (b.id) {
+        case Builtin::kMin:
+        case Builtin::kMax:
+        case Builtin::kIf: {
+          t = args[first_value];
+          for (size_t i = first_value + 1; i < args.size(); ++i) {
+            if (!(args[i].dim == t.dim)) {
+              diags_.Error(e->range,
+                           fmt::format("{} needs arguments of one kind: {} and {}", name,
+                                       UnitWords(e->args[first_value]), UnitWords(e->args[i])));
+              *bad = true;
+              return t;
+            }
+            if (!TempCompatible(t.temp, args[i].temp)) {
+              diags_.Error(e->range, fmt::format("{} mixes {} and {}", name, TempWord(t.temp),
+                                                 TempWord(args[i].temp)));
+              *bad = true;
+              return t;
+            }
+            if (t.temp == TempKind::kEither) t.temp = args[i].temp;
+          }
+          return t;
+        }
+        case Builtin::kAbs:
+          return args[0];
+        case Builtin::kSqrt:
+          if (!args[0].dim.PowRational(1, 2, &t.dim)) {
+            diags_.Error(e->range, fmt::format("the square root of {} has no whole-numbered unit",
+                                               UnitWords(e->args[0])));
+            *bad = true;
+          }
+          t.temp = KindFor(t.dim, TempKind::kNone);
+          return t;
+        default:
+          if (!args[0].dim.dimensionless()) {
+            diags_.Error(e->args[0]->range,
+                         fmt::format("the argument of {} must be a plain number, not {}", name,
+                                     UnitWords(e->args[0])));
+            *bad = true;
+          }
+          return t;
+      }
+    }
+    const library::FunctionInfo& f = *info.fn;
+    if (args.size() != f.args.size()) {
+      diags_.Error(e->range, fmt::format("{} takes {} argument{} ({}), got {}", name, f.args.size(),
+                                         f.args.size() == 1 ? "" : "s", ArgList(f), args.size()));
+      *bad = true;
+      return t;
+    }
+    for (size_t i = 0; i < args.size(); ++i) {
+      const library::ArgSpec& spec = f.args[i];
+      if (args[i].boolean) {
+        BoolMisuse(e->args[i], bad);
+        return t;
+      }
+      if (!(args[i].dim == spec.dim)) {
+        diags_.Error(e->args[i]->range,
+                     fmt::format("argument {} of {} ({}) expects {}, got {}", i + 1, name,
+                                 spec.name, Expectation(spec.dim), UnitWords(e->args[i])));
+        *bad = true;
+      } else if (spec.kind == TempKind::kAbsolute && args[i].temp == TempKind::kInterval) {
+        diags_.Error(e->args[i]->range,
+                     fmt::format("argument {} of {} ({}) is an absolute temperature, got a "
+                                 "temperature difference",
+                                 i + 1, name, spec.name));
+        *bad = true;
+      } else if (spec.kind == TempKind::kInterval && args[i].temp == TempKind::kAbsolute) {
+        diags_.Error(e->args[i]->range,
+                     fmt::format("argument {} of {} ({}) is a temperature difference, got an "
+                                 "absolute temperature",
+                                 i + 1, name, spec.name));
+        *bad = true;
+      }
+    }
+    t.dim = f.result;
+    t.temp = KindFor(f.result, f.result_kind);
+    return t;
+  }
+
+  static std::string Expectation(const Dimension& d) {
+    if (d.dimensionless()) return "a plain number";
+    const std::string words = d.Describe();
+    const std::string si = d.SiUnit();
+    if (words == si) return si;
+    const bool vowel =
+        !words.empty() && std::string_view("aeiou").find(words[0]) != std::string_view::npos;
+    return fmt::format("{} {} ({})", vowel ? "an" : "a", words, si);
+  }
+
+  static std::string ArgList(const library::FunctionInfo& f) {
+    std::string s;
+    for (size_t i = 0; i < f.args.size(); ++i) {
+      if (i > 0) s += ", ";
+      s += f.args[i].name;
+    }
+    return s;
+  }
+
+  // Display unit for a quantity without `in`: prefer, else coherent SI.
+  units::Unit DefaultDisplay(const Type& t) const {
+    for (const units::Unit& u : model_->prefer) {
+      if (!(u.dim == t.dim)) continue;
+      if (t.dim.IsTemperature()) {
+        const bool abs_unit = u.kind == TempKind::kAbsolute;
+        const bool int_unit = u.kind == TempKind::kInterval;
+        if (t.temp == TempKind::kInterval && abs_unit) continue;
+        if (t.temp != TempKind::kInterval && int_unit) continue;
+      }
+      return u;
+    }
+    units::Unit u;
+    u.text = t.dim.SiUnit();
+    u.dim = t.dim;
+    u.kind = KindFor(t.dim, TempKind::kEither);
+    return u;
+  }
+
+  void TypeAll() {
+    bad_.assign(model_->quantities.size(), false);
+    for (int qi : model_->order) {
+      Quantity& q = model_->quantities[static_cast<size_t>(qi)];
+      bool bad = false;
+      if (q.expr == nullptr) continue;
+      q.type = TypeOf(q.expr, &bad);
+      if (!bad && q.type.boolean) {
+        diags_.Error(q.expr->range,
+                     "a quantity cannot be a comparison; use a check, or if(condition, a, b)");
+        bad = true;
+      }
+      if (q.kind == QuantityKind::kGiven && !bad) {
+        const ExprInfo& li = model_->info.at(q.expr);
+        q.given_si = li.si;
+        if (!li.unit.text.empty()) {
+          q.display = li.unit;
+          q.display_explicit = true;
+        } else {
+          q.display = DefaultDisplay(q.type);
+        }
+      } else if (!bad) {
+        AssignDisplay(q, &bad);
+      }
+      bad_[static_cast<size_t>(qi)] = bad;
+    }
+    for (CheckDef& c : model_->checks) TypeCheck(c);
+  }
+
+  void AssignDisplay(Quantity& q, bool* bad) {
+    const UnitRef& d = q.stmt->display;
+    if (d.text.empty()) {
+      q.display = DefaultDisplay(q.type);
+      return;
+    }
+    units::Unit u;
+    if (!ParseUnitAt(d.text, d.range, &u)) {
+      *bad = true;
+      return;
+    }
+    if (!(u.dim == q.type.dim)) {
+      diags_.Error(d.range,
+                   fmt::format("'{}' is {}, which cannot be shown in {} ({})", q.name,
+                               Expectation(q.type.dim).substr(0), u.text,
+                               u.dim.dimensionless() ? "a plain number" : u.dim.Describe()));
+      *bad = true;
+      return;
+    }
+    if (q.type.temp == TempKind::kInterval && u.kind == TempKind::kAbsolute) {
+      diags_.Error(d.range,
+                   fmt::format("'{}' is a temperature difference; show it in K or ddeg{} rather "
+                               "than {}",
+                               q.name, u.text == "degF" ? "F" : "C", u.text));
+      *bad = true;
+      return;
+    }
+    if (q.type.temp == TempKind::kAbsolute && u.kind == TempKind::kInterval) {
+      diags_.Error(d.range, fmt::format("'{}' is an absolute temperature; show it in degC, degF "
+                                        "or K rather than {}",
+                                        q.name, u.text));
+      *bad = true;
+      return;
+    }
+    q.display = u;
+    q.display_explicit = true;
+  }
+
+  void TypeCheck(CheckDef& c) {
+    bool bad = false;
+    const Type t = TypeOf(c.expr, &bad);
+    if (bad || !t.boolean) return;
+    if (!IsComparison(c.expr->kind)) return;
+    c.has_sides = true;
+    const Expr* lhs = c.expr->args[0];
+    const Expr* rhs = c.expr->args[1];
+    const ExprInfo& li = model_->info.at(lhs);
+    const ExprInfo& ri = model_->info.at(rhs);
+    auto literal_unit = [&](const Expr* e, units::Unit* u) {
+      const Expr* lit = e->kind == ExprKind::kNeg ? e->args[0] : e;
+      if (lit->kind != ExprKind::kNumber || lit->unit.empty()) return false;
+      *u = model_->info.at(lit).unit;
+      return true;
+    };
+    units::Unit u;
+    if (literal_unit(rhs, &u) || literal_unit(lhs, &u)) {
+      // An interval compared with a literal like 5 K keeps K; an absolute
+      // compared with 45 degC keeps degC.
+    } else if (lhs->kind == ExprKind::kName && li.quantity >= 0) {
+      u = model_->quantities[static_cast<size_t>(li.quantity)].display;
+    } else if (rhs->kind == ExprKind::kName && ri.quantity >= 0) {
+      u = model_->quantities[static_cast<size_t>(ri.quantity)].display;
+    } else {
+      Type side = li.type;
+      if (side.temp == TempKind::kEither) side.temp = ri.type.temp;
+      u = DefaultDisplay(side);
+    }
+    c.side_unit = u;
+  }
+
+  const BuildOptions& options_;
+  std::vector<std::unique_ptr<Deck>>* keep_;
+  Diagnostics& diags_;
+  std::unique_ptr<Model> model_;
+  std::unordered_map<const Expr*, std::string> scope_of_;
+  std::set<std::vector<int>> reported_cycles_;
+  std::vector<bool> bad_;
+};
+
+}  // namespace
+
+std::unique_ptr<Model> BuildModel(const Deck& deck, const BuildOptions& options,
+                                  std::vector<std::unique_ptr<Deck>>* keep, Diagnostics& diags) {
+  Builder b(options, keep, diags);
+  return b.Run(deck);
+}
+
+}  // namespace heatdeck

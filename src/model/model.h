@@ -1,0 +1,173 @@
+// The model: a deck's statements resolved into named quantities with types,
+// a dependency order, checks, cases, sweeps and solves.  Built by
+// BuildModel (resolve + check); read by the compiler, the evaluator and the
+// writers.  The model owns what it resolves; it points into the syntax trees,
+// which the Session keeps alive.
+#pragma once
+
+#include <memory>
+#include <string>
+#include <unordered_map>
+#include <vector>
+
+#include "lang/diagnostics.h"
+#include "lang/syntax.h"
+#include "library/registry.h"
+#include "library/table.h"
+#include "units/unit.h"
+
+namespace heatdeck {
+
+enum class QuantityKind { kGiven, kCalc, kSolved };
+const char* QuantityKindName(QuantityKind k);  // "given", "calc", "solved"
+
+// The type the checker gives every expression and quantity.
+struct Type {
+  units::Dimension dim;
+  units::TempKind temp = units::TempKind::kNone;
+  bool boolean = false;  // comparisons and logical operators
+};
+
+struct Quantity {
+  std::string name;  // as referenced: "Q", or "hx.Q" for a template's
+  QuantityKind kind = QuantityKind::kCalc;
+  const Stmt* stmt = nullptr;  // the defining statement (solve statement for kSolved)
+  const Expr* expr = nullptr;  // given: the literal; calc: the expression; solved: null
+  SourceRange range;           // the name where it is defined
+  Type type;
+  units::Unit display;            // display unit (dimension equal to type.dim)
+  bool display_explicit = false;  // `in UNIT` or the given's own unit
+  std::string description;
+  std::string source;
+  std::vector<int> deps;          // quantities read directly, sorted, unique
+  int section = -1;               // index into Model::sections, -1 before the first
+  std::string prefix;             // template prefix, "" for the deck's own
+  bool template_default = false;  // a template input left unbound
+  double given_si = 0.0;          // given: the literal in SI
+};
+
+struct CheckDef {
+  const Stmt* stmt = nullptr;
+  const Expr* expr = nullptr;
+  std::string description;
+  std::string prefix;  // template prefix
+  int section = -1;
+  std::vector<int> deps;
+  // For a single comparison: the display unit of the two sides (from the
+  // right-hand literal's unit, else the left quantity's display unit).
+  units::Unit side_unit;
+  bool has_sides = false;
+};
+
+struct CaseDef {
+  std::string name;
+  std::string description;
+  const Stmt* stmt = nullptr;
+  std::vector<std::pair<int, double>> overrides;  // quantity index, SI value
+};
+
+struct SweepDef {
+  const Stmt* stmt = nullptr;
+  int quantity = -1;           // the swept given
+  std::vector<double> values;  // SI, in order
+};
+
+struct SolveDef {
+  const Stmt* stmt = nullptr;
+  int unknown = -1;       // the kSolved quantity
+  double lo = 0, hi = 0;  // SI bracket
+  const Expr* lhs = nullptr;
+  const Expr* rhs = nullptr;
+  std::vector<int> deps;  // quantities the condition reads
+};
+
+struct TableDef {
+  std::string name;
+  const Stmt* stmt = nullptr;
+  std::string path;  // resolved path
+  library::Table table;
+};
+
+// One report section and what it holds, in source order.
+struct Section {
+  std::string title;  // "" for the implicit section before the first `section`
+  struct Item {
+    enum class Kind { kNarrative, kQuantity, kCheck, kSolve } kind;
+    int index;  // into narrative, quantities, checks or solves
+  };
+  std::vector<Item> items;
+};
+
+// What the checker knows about one expression node.
+struct ExprInfo {
+  Type type;
+  bool literal = false;                       // a number, or a negated number: si holds its value
+  double si = 0.0;                            // literals and constants: the value in SI
+  int quantity = -1;                          // names: the quantity index
+  int constant = -1;                          // names: index into BuiltinConstants()
+  int builtin = -1;                           // calls: index into BuiltinFunctions()
+  const library::FunctionInfo* fn = nullptr;  // calls: a library function
+  int table = -1, column = -1;                // calls: NAME.COLUMN(x)
+  units::Unit unit;                           // literals: the parsed unit
+};
+
+// Built-in math functions of the language (LANGUAGE.md "Expressions").
+enum class Builtin {
+  kMin,
+  kMax,
+  kAbs,
+  kSqrt,
+  kExp,
+  kLn,
+  kLog10,
+  kSin,
+  kCos,
+  kTan,
+  kAsin,
+  kAcos,
+  kAtan,
+  kSinh,
+  kCosh,
+  kTanh,
+  kIf
+};
+struct BuiltinInfo {
+  const char* name;
+  Builtin id;
+  int min_args, max_args;  // max -1: any number
+};
+const std::vector<BuiltinInfo>& BuiltinFunctions();
+
+struct ConstantInfo {
+  const char* name;
+  double si;
+  units::Dimension dim;
+  const char* description;
+};
+const std::vector<ConstantInfo>& BuiltinConstants();
+
+struct Model {
+  std::string title;
+  std::vector<std::pair<std::string, std::string>> meta;  // in deck order
+  std::vector<std::string> narrative;
+  std::vector<Section> sections;
+  std::vector<Quantity> quantities;
+  std::unordered_map<std::string, int> by_name;
+  std::vector<CheckDef> checks;
+  std::vector<CaseDef> cases;
+  std::vector<SweepDef> sweeps;
+  std::vector<SolveDef> solves;
+  std::vector<TableDef> tables;
+  std::vector<int> order;  // quantity indices in dependency order
+  std::unordered_map<const Expr*, ExprInfo> info;
+  // prefer: display unit per dimension (absolute temperature separately).
+  std::vector<units::Unit> prefer;
+
+  const ExprInfo& Info(const Expr* e) const { return info.at(e); }
+  int Find(const std::string& name) const {
+    auto it = by_name.find(name);
+    return it == by_name.end() ? -1 : it->second;
+  }
+};
+
+}  // namespace heatdeck

@@ -1,0 +1,177 @@
+#include "report/json_writer.h"
+
+#include <cmath>
+
+#include <nlohmann/json.hpp>
+
+namespace heatdeck {
+
+using nlohmann::ordered_json;
+
+namespace {
+
+ordered_json Number(double v) {
+  if (!std::isfinite(v)) return nullptr;
+  return v;
+}
+
+ordered_json Quantities(const Model& m, const CaseResult& c) {
+  ordered_json list = ordered_json::array();
+  for (size_t i = 0; i < m.quantities.size(); ++i) {
+    const Quantity& q = m.quantities[i];
+    const bool ok = i < c.ok.size() ? c.ok[i] : false;
+    const double si = i < c.values.size() ? c.values[i] : NAN;
+    ordered_json j;
+    j["name"] = q.name;
+    j["kind"] = QuantityKindName(q.kind);
+    j["value"] = ok ? Number(q.display.FromSi(si)) : ordered_json(nullptr);
+    j["unit"] = q.display.text;
+    j["si_value"] = ok ? Number(si) : ordered_json(nullptr);
+    j["si_unit"] = q.type.dim.SiUnit();
+    j["expression"] = q.expr != nullptr ? Pretty(*q.expr) : "";
+    j["description"] = q.description;
+    j["source"] = q.source;
+    j["line"] = q.range.line;
+    ordered_json warnings = ordered_json::array();
+    ordered_json notes = ordered_json::array();
+    ordered_json errors = ordered_json::array();
+    if (i < c.messages.size()) {
+      for (const auto& msg : c.messages[i]) {
+        switch (msg.kind) {
+          case QuantityMessage::Kind::kWarning:
+            warnings.push_back(msg.text);
+            break;
+          case QuantityMessage::Kind::kNote:
+            notes.push_back(msg.text);
+            break;
+          case QuantityMessage::Kind::kError:
+            errors.push_back(msg.text);
+            break;
+        }
+      }
+    }
+    j["warnings"] = warnings;
+    j["notes"] = notes;
+    j["errors"] = errors;
+    if (!q.prefix.empty()) j["template"] = q.prefix.substr(0, q.prefix.size() - 1);
+    if (q.template_default) j["template_default"] = true;
+    list.push_back(std::move(j));
+  }
+  return list;
+}
+
+ordered_json Checks(const Model& m, const CaseResult& c) {
+  ordered_json list = ordered_json::array();
+  for (size_t i = 0; i < m.checks.size(); ++i) {
+    const CheckDef& d = m.checks[i];
+    const CheckResult& r = c.checks[i];
+    ordered_json j;
+    j["expression"] = Pretty(*d.expr);
+    j["evaluated"] = r.evaluated;
+    j["pass"] = r.evaluated ? ordered_json(r.pass) : ordered_json(nullptr);
+    if (d.has_sides && r.evaluated) {
+      j["lhs_si"] = Number(r.lhs_si);
+      j["rhs_si"] = Number(r.rhs_si);
+      j["margin"] = Number(r.margin_si);
+      j["si_unit"] = d.side_unit.dim.SiUnit();
+      j["unit"] = d.side_unit.text;
+      // Display values of the two sides; a margin is a difference, so it
+      // converts with the unit's factor alone.
+      j["lhs"] = Number(d.side_unit.FromSi(r.lhs_si));
+      j["rhs"] = Number(d.side_unit.FromSi(r.rhs_si));
+      j["margin_display"] = Number(r.margin_si / d.side_unit.factor);
+    } else {
+      j["lhs_si"] = nullptr;
+      j["rhs_si"] = nullptr;
+      j["margin"] = nullptr;
+    }
+    j["line"] = d.stmt->range.line;
+    j["description"] = d.description;
+    if (!d.prefix.empty()) j["template"] = d.prefix.substr(0, d.prefix.size() - 1);
+    list.push_back(std::move(j));
+  }
+  return list;
+}
+
+ordered_json Sweeps(const Model& m, const Results& r) {
+  ordered_json list = ordered_json::array();
+  for (const SweepResult& s : r.sweeps) {
+    ordered_json j;
+    ordered_json swept = ordered_json::array();
+    for (int q : s.swept) swept.push_back(m.quantities[static_cast<size_t>(q)].name);
+    j["swept"] = swept;
+    ordered_json cols = ordered_json::array();
+    for (int q : s.columns) {
+      const Quantity& qq = m.quantities[static_cast<size_t>(q)];
+      cols.push_back(
+          {{"name", qq.name}, {"unit", qq.display.text}, {"si_unit", qq.type.dim.SiUnit()}});
+    }
+    j["columns"] = cols;
+    j["points"] = s.points;
+    ordered_json rows = ordered_json::array();
+    for (size_t p = 0; p < s.rows.size(); ++p) {
+      ordered_json row = ordered_json::array();
+      for (double v : s.rows[p]) row.push_back(Number(v));
+      ordered_json point;
+      point["si_values"] = row;
+      point["error"] = p < s.row_errors.size() && !s.row_errors[p].empty()
+                           ? ordered_json(s.row_errors[p])
+                           : ordered_json(nullptr);
+      rows.push_back(std::move(point));
+    }
+    j["rows"] = rows;
+    list.push_back(std::move(j));
+  }
+  return list;
+}
+
+}  // namespace
+
+std::string WriteJson(const Results& results, const Diagnostics* diags) {
+  const Model& m = *results.model;
+  ordered_json doc;
+  doc["tool"] = "heatdeck";
+  doc["version"] = results.tool_version;
+  doc["deck"] = results.deck_path;
+  doc["sha256"] = results.files.empty() ? "" : results.files.front().sha256;
+  doc["title"] = m.title;
+  doc["date"] = results.date;
+  ordered_json meta = ordered_json::object();
+  for (const auto& [k, v] : m.meta) meta[k] = v;
+  doc["meta"] = meta;
+  ordered_json cases = ordered_json::array();
+  for (const CaseResult& c : results.cases) {
+    ordered_json j;
+    j["name"] = c.name;
+    j["description"] = c.description;
+    ordered_json over = ordered_json::array();
+    for (int q : c.overridden) over.push_back(m.quantities[static_cast<size_t>(q)].name);
+    j["overridden"] = over;
+    j["quantities"] = Quantities(m, c);
+    j["checks"] = Checks(m, c);
+    j["failed_checks"] = c.failed_checks;
+    cases.push_back(std::move(j));
+  }
+  doc["cases"] = cases;
+  doc["sweeps"] = Sweeps(m, results);
+  ordered_json files = ordered_json::array();
+  for (const InputFile& f : results.files)
+    files.push_back({{"path", f.path}, {"sha256", f.sha256}});
+  doc["files"] = files;
+  ordered_json diag = ordered_json::array();
+  if (diags != nullptr) {
+    for (const Diagnostic* d : diags->Sorted()) {
+      diag.push_back({{"severity", d->severity == Severity::kError     ? "error"
+                                   : d->severity == Severity::kWarning ? "warning"
+                                                                       : "note"},
+                      {"file", std::string(d->range.file)},
+                      {"line", d->range.line},
+                      {"column", d->range.col},
+                      {"message", d->message}});
+    }
+  }
+  doc["diagnostics"] = diag;
+  return doc.dump(2) + "\n";
+}
+
+}  // namespace heatdeck
