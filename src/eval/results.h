@@ -64,6 +64,19 @@ struct SweepResult {
   std::vector<std::string> row_errors;    // per point, "" when the point evaluated
 };
 
+// A temperature profile along the exchanger (the `profile` statement),
+// computed by the evaluator for one case: hot and cold stream temperatures at
+// fractions x of the heat-transfer area, x = 0 where the hot stream enters.
+struct ProfileResult {
+  int profile = -1;  // index into Model::profiles
+  bool counterflow = true;
+  std::vector<double> x;        // 0 … 1
+  std::vector<double> hot_si;   // K
+  std::vector<double> cold_si;  // K
+  bool ok = false;              // false when the end temperatures are inconsistent
+  std::string error;
+};
+
 // A file that went into the results, for the report's appendix.
 struct InputFile {
   std::string path;

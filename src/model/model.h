@@ -81,6 +81,16 @@ struct SolveDef {
   std::vector<int> deps;  // quantities the condition reads
 };
 
+// `profile counter|parallel: hot T_h1 to T_h2, cold T_c1 to T_c2 ["caption"]`
+// asks the report for a temperature-profile figure.
+struct ProfileDef {
+  const Stmt* stmt = nullptr;
+  bool counterflow = true;
+  int hot_in = -1, hot_out = -1, cold_in = -1, cold_out = -1;  // quantity indices
+  std::string caption;
+  int section = -1;
+};
+
 struct TableDef {
   std::string name;
   const Stmt* stmt = nullptr;
@@ -92,8 +102,8 @@ struct TableDef {
 struct Section {
   std::string title;  // "" for the implicit section before the first `section`
   struct Item {
-    enum class Kind { kNarrative, kQuantity, kCheck, kSolve } kind;
-    int index;  // into narrative, quantities, checks or solves
+    enum class Kind { kNarrative, kQuantity, kCheck, kSolve, kProfile } kind;
+    int index;  // into narrative, quantities, checks, solves or profiles
   };
   std::vector<Item> items;
 };
@@ -158,6 +168,7 @@ struct Model {
   std::vector<SweepDef> sweeps;
   std::vector<SolveDef> solves;
   std::vector<TableDef> tables;
+  std::vector<ProfileDef> profiles;
   std::vector<int> order;  // quantity indices in dependency order
   std::unordered_map<const Expr*, ExprInfo> info;
   // prefer: display unit per dimension (absolute temperature separately).
