@@ -1,0 +1,10 @@
+#!/usr/bin/env bash
+# The main job on a fresh Debian machine: install what is missing, build,
+# evaluate the example deck, and print where the report and workbook are.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+tools/install-deps.sh
+cmake -S . -B build -DCMAKE_BUILD_TYPE=Release -DHEATDECK_TESTS=OFF >/dev/null
+cmake --build build -j"$(nproc)" --target heatdeck >/dev/null
+deck=${1:-examples/jacket_water_cooler.deck}
+./build/heatdeck run "$deck" -o out -f html,md,xlsx,json
