@@ -288,54 +288,36 @@ std::string LogMeanSheet(const std::string& a, const std::string& b) {
 
 // Spreadsheet form of fcorr_shell: P and R from the temperatures, P1 by the
 // n-shell transformation, then the one-shell formula, with the R = 1 branch.
-// Written, like the C++ kernel, without the cancellations near R = 1 or at
-// small P: Y - 1 = expm1(ln(1 + delta)/n), delta = (1-R)P/(1-P),
-// P1 = (Y-1)/(Y - 1 + 1 - R); ln[(1-P1)/(1-P1 R)] = ln(1 + z),
-// z = P1(R-1)/(1-P1 R); the second log is ln(1 + 2 P1 S/(2 - P1(R+1+S))).
+// The textbook forms, to stay compact: they lose about eps/|R - 1| relative
+// very near R = 1 (the C++ kernel does not).
 std::string ShellSheet() {
   const std::string p = "({3}-{2})/({0}-{2})";
   const std::string r = "({0}-{1})/({3}-{2})";
   const std::string s = ExpandSheet("SQRT(@R^2+1)", {{"@R", r}});
-  const std::string ym1 = SheetExpm1(ExpandSheet(
-      "@L/{4}", {{"@L", SheetLog1p(ExpandSheet("(1-@R)*@P/(1-@P)", {{"@P", p}, {"@R", r}}))}}));
+  const std::string y = ExpandSheet("POWER((1-@P*@R)/(1-@P),1/{4})", {{"@P", p}, {"@R", r}});
   const std::string p1 =
-      ExpandSheet("IF({4}=1,@P,@Y/(@Y+1-@R))", {{"@P", p}, {"@Y", ym1}, {"@R", r}});
+      ExpandSheet("IF({4}=1,@P,(1-@Y)/(@R-@Y))", {{"@P", p}, {"@Y", y}, {"@R", r}});
   const std::string p1_eq = ExpandSheet("@P/({4}-({4}-1)*@P)", {{"@P", p}});
-  const std::string log2 =
-      SheetLog1p(ExpandSheet("2*@A*@S/(2-@A*(@R+1+@S))", {{"@A", p1}, {"@R", r}, {"@S", s}}));
   const std::string f =
-      ExpandSheet("@S/(@R-1)*@L1/@L2",
-                  {{"@S", s},
-                   {"@R", r},
-                   {"@L1", SheetLog1p(ExpandSheet("@A*(@R-1)/(1-@A*@R)", {{"@A", p1}, {"@R", r}}))},
-                   {"@L2", log2}});
-  const std::string log2_eq =
-      SheetLog1p(ExpandSheet("2*@A*SQRT(2)/(2-@A*(2+SQRT(2)))", {{"@A", p1_eq}}));
-  const std::string f_eq = ExpandSheet("SQRT(2)*@A/(1-@A)/@L", {{"@A", p1_eq}, {"@L", log2_eq}});
+      ExpandSheet("@S/(@R-1)*LN((1-@A)/(1-@A*@R))/LN((2-@A*(@R+1-@S))/(2-@A*(@R+1+@S)))",
+                  {{"@S", s}, {"@A", p1}, {"@R", r}});
+  const std::string f_eq =
+      ExpandSheet("SQRT(2)*@A/(1-@A)/LN((2-@A*(2-SQRT(2)))/(2-@A*(2+SQRT(2))))", {{"@A", p1_eq}});
   return ExpandSheet("IF(OR({3}={2},{0}={1}),1,IF(@R=1,@FEQ,@F))",
                      {{"@FEQ", f_eq}, {"@F", f}, {"@R", r}});
 }
 
 // Spreadsheet form of fcorr_cross_hot_mixed / _cold_mixed: eff and Cr from
 // the temperature changes (C_min has the larger one), F = NTU ratio, each
-// NTU in the log1p form of the entu family.
+// NTU in its textbook closed form.
 std::string CrossMixedSheet(bool hot_mixed) {
   const std::string dh = "ABS({0}-{1})", dc = "ABS({3}-{2})";
   const std::string e = ExpandSheet("MAX(@H,@C)/ABS({0}-{2})", {{"@H", dh}, {"@C", dc}});
   const std::string c = ExpandSheet("MIN(@H,@C)/MAX(@H,@C)", {{"@H", dh}, {"@C", dc}});
   const std::string ntu_cf =
-      ExpandSheet("IF(@C=1,@E/(1-@E),@L/(1-@C))",
-                  {{"@L", SheetLog1p(ExpandSheet("@E*(1-@C)/(1-@E)", {{"@E", e}, {"@C", c}}))},
-                   {"@E", e},
-                   {"@C", c}});
-  const std::string ntu_cmin = ExpandSheet(
-      "-@L/@C", {{"@L", SheetLog1p(ExpandSheet("@C*@I", {{"@C", c}, {"@I", SheetLog1p("-" + e)}}))},
-                 {"@C", c}});
-  const std::string ntu_cmax = ExpandSheet(
-      "-@L",
-      {{"@L", SheetLog1p(ExpandSheet(
-                  "@I/@C", {{"@I", SheetLog1p(ExpandSheet("-@C*@E", {{"@C", c}, {"@E", e}}))},
-                            {"@C", c}}))}});
+      ExpandSheet("IF(@C=1,@E/(1-@E),LN((1-@C*@E)/(1-@E))/(1-@C))", {{"@E", e}, {"@C", c}});
+  const std::string ntu_cmin = ExpandSheet("-LN(1+@C*LN(1-@E))/@C", {{"@E", e}, {"@C", c}});
+  const std::string ntu_cmax = ExpandSheet("-LN(1+LN(1-@C*@E)/@C)", {{"@E", e}, {"@C", c}});
   // The hot stream is C_min when its change is the larger.
   const std::string ntu_arr =
       ExpandSheet(hot_mixed ? "IF(@H>=@D,@MIN,@MAX)" : "IF(@H>=@D,@MAX,@MIN)",

@@ -3,7 +3,10 @@
 //
 // Spreadsheets have no expm1/log1p, so the building blocks below give their
 // values without the cancellation of 1 - EXP(-x) or LN(1 + z) for small
-// arguments, using only functions every spreadsheet has.
+// arguments, using only functions every spreadsheet has.  Each repeats its
+// argument, so deeply nested formulas use them only where the simple
+// relations would lose digits in their common range (small NTU or eff);
+// Excel caps a formula at 8192 characters.
 #pragma once
 
 #include <initializer_list>
@@ -39,11 +42,11 @@ inline std::string SheetExpm1(const std::string& y) {
   return ExpandSheet("2*SINH(@Y/2)*EXP(@Y/2)", {{"@Y", y}});
 }
 
-// ln(1 + z): five terms of the Taylor series for |z| < 1e-3 (truncation
-// below z^6/6, i.e. 2e-16 relative), LN(1 + z) above, where rounding 1 + z
-// costs at most 2e-13 relative.
+// ln(1 + z): three terms of the Taylor series for |z| < 1e-4 (truncation
+// below z^4/4, 2.5e-13 relative), LN(1 + z) above, where rounding 1 + z
+// costs at most 1.1e-12 relative.  z appears five times: nest with care.
 inline std::string SheetLog1p(const std::string& z) {
-  return ExpandSheet("IF(ABS(@Z)<0.001,@Z*(1-@Z/2+@Z^2/3-@Z^3/4+@Z^4/5),LN(1+@Z))", {{"@Z", z}});
+  return ExpandSheet("IF(ABS(@Z)<0.0001,@Z*(1-@Z/2+@Z^2/3),LN(1+@Z))", {{"@Z", z}});
 }
 
 }  // namespace heatdeck::library
