@@ -228,6 +228,10 @@ double Fail(Sink& sink, fmt::format_string<Args...> f, Args&&... args) {
   return kNaN;
 }
 
+// A Cr a few ulp above 1 is the rounding of a balanced exchanger's
+// C_min/C_max, not a third regime: read up to 1 + 1e-12 as 1.
+double CrArg(double cr) { return cr > 1 && cr <= 1 + 1e-12 ? 1.0 : cr; }
+
 // The conditions are written as !(x >= 0) so that NaN is an error too.
 bool NtuCrOk(const char* fn, double ntu, double cr, Sink& sink) {
   if (!(ntu >= 0) || !std::isfinite(ntu)) {
@@ -235,7 +239,7 @@ bool NtuCrOk(const char* fn, double ntu, double cr, Sink& sink) {
     return false;
   }
   if (!(cr >= 0 && cr <= 1)) {
-    Fail(sink, "{}: Cr = {:.6g} is outside [0, 1]; Cr = C_min/C_max", fn, cr);
+    Fail(sink, "{}: Cr = {:.15g} is outside [0, 1]; Cr = C_min/C_max", fn, cr);
     return false;
   }
   return true;
@@ -256,7 +260,7 @@ struct Arrangement {
 bool EffOk(const char* fn, double eff, double cr, double max_eff, const Arrangement& arr,
            Sink& sink) {
   if (!(cr >= 0 && cr <= 1)) {
-    Fail(sink, "{}: Cr = {:.6g} is outside [0, 1]; Cr = C_min/C_max", fn, cr);
+    Fail(sink, "{}: Cr = {:.15g} is outside [0, 1]; Cr = C_min/C_max", fn, cr);
     return false;
   }
   if (!(eff >= 0)) {
@@ -280,61 +284,72 @@ constexpr Arrangement kCminArr{"crossflow with the C_min fluid mixed", "1 - exp(
 constexpr Arrangement kUnmixedArr{"crossflow with both fluids unmixed", "1"};
 
 double EffParallel(const double* a, Sink& s) {
-  if (!NtuCrOk("eff_parallel", a[0], a[1], s)) return kNaN;
-  return entu::Parallel(a[0], a[1]);
+  const double cr = CrArg(a[1]);
+  if (!NtuCrOk("eff_parallel", a[0], cr, s)) return kNaN;
+  return entu::Parallel(a[0], cr);
 }
 double EffCounter(const double* a, Sink& s) {
-  if (!NtuCrOk("eff_counter", a[0], a[1], s)) return kNaN;
-  return entu::Counter(a[0], a[1]);
+  const double cr = CrArg(a[1]);
+  if (!NtuCrOk("eff_counter", a[0], cr, s)) return kNaN;
+  return entu::Counter(a[0], cr);
 }
 double EffShell(const double* a, Sink& s) {
-  if (!NtuCrOk("eff_shell", a[0], a[1], s) || !ShellsOk("eff_shell", a[2], s)) return kNaN;
-  return entu::Shell(a[0], a[1], a[2]);
+  const double cr = CrArg(a[1]);
+  if (!NtuCrOk("eff_shell", a[0], cr, s) || !ShellsOk("eff_shell", a[2], s)) return kNaN;
+  return entu::Shell(a[0], cr, a[2]);
 }
 double EffCrossUnmixed(const double* a, Sink& s) {
-  if (!NtuCrOk("eff_cross_unmixed", a[0], a[1], s)) return kNaN;
+  const double cr = CrArg(a[1]);
+  if (!NtuCrOk("eff_cross_unmixed", a[0], cr, s)) return kNaN;
   if (a[0] > entu::kMaxSeriesNtu) {
     return Fail(s,
                 "eff_cross_unmixed: NTU = {:.6g} is beyond {:.0e}, the largest NTU the exact "
                 "series is summed for (its cost grows with NTU)",
                 a[0], entu::kMaxSeriesNtu);
   }
-  return entu::CrossUnmixed(a[0], a[1]);
+  return entu::CrossUnmixed(a[0], cr);
 }
 double EffCrossUnmixedApprox(const double* a, Sink& s) {
-  if (!NtuCrOk("eff_cross_unmixed_approx", a[0], a[1], s)) return kNaN;
-  return entu::CrossUnmixedApprox(a[0], a[1]);
+  const double cr = CrArg(a[1]);
+  if (!NtuCrOk("eff_cross_unmixed_approx", a[0], cr, s)) return kNaN;
+  return entu::CrossUnmixedApprox(a[0], cr);
 }
 double EffCrossCmaxMixed(const double* a, Sink& s) {
-  if (!NtuCrOk("eff_cross_cmax_mixed", a[0], a[1], s)) return kNaN;
-  return entu::CrossCmaxMixed(a[0], a[1]);
+  const double cr = CrArg(a[1]);
+  if (!NtuCrOk("eff_cross_cmax_mixed", a[0], cr, s)) return kNaN;
+  return entu::CrossCmaxMixed(a[0], cr);
 }
 double EffCrossCminMixed(const double* a, Sink& s) {
-  if (!NtuCrOk("eff_cross_cmin_mixed", a[0], a[1], s)) return kNaN;
-  return entu::CrossCminMixed(a[0], a[1]);
+  const double cr = CrArg(a[1]);
+  if (!NtuCrOk("eff_cross_cmin_mixed", a[0], cr, s)) return kNaN;
+  return entu::CrossCminMixed(a[0], cr);
 }
 double EffCrossMixed(const double* a, Sink& s) {
-  if (!NtuCrOk("eff_cross_mixed", a[0], a[1], s)) return kNaN;
-  return entu::CrossMixed(a[0], a[1]);
+  const double cr = CrArg(a[1]);
+  if (!NtuCrOk("eff_cross_mixed", a[0], cr, s)) return kNaN;
+  return entu::CrossMixed(a[0], cr);
 }
 
 double NtuCounterFn(const double* a, Sink& s) {
-  if (!EffOk("ntu_counter", a[0], a[1], entu::MaxCounter(a[1]), kCounterArr, s)) return kNaN;
-  return entu::NtuCounter(a[0], a[1]);
+  const double cr = CrArg(a[1]);
+  if (!EffOk("ntu_counter", a[0], cr, entu::MaxCounter(cr), kCounterArr, s)) return kNaN;
+  return entu::NtuCounter(a[0], cr);
 }
 double NtuParallelFn(const double* a, Sink& s) {
-  if (!EffOk("ntu_parallel", a[0], a[1], entu::MaxParallel(a[1]), kParallelArr, s)) return kNaN;
-  return entu::NtuParallel(a[0], a[1]);
+  const double cr = CrArg(a[1]);
+  if (!EffOk("ntu_parallel", a[0], cr, entu::MaxParallel(cr), kParallelArr, s)) return kNaN;
+  return entu::NtuParallel(a[0], cr);
 }
 double NtuShellFn(const double* a, Sink& s) {
+  const double cr = CrArg(a[1]);
   if (!ShellsOk("ntu_shell", a[2], s)) return kNaN;
   // The maximum is only meaningful once Cr is known to lie in [0, 1].
-  const double max_eff = a[1] >= 0 && a[1] <= 1 ? entu::MaxShell(a[1], a[2]) : kNaN;
+  const double max_eff = cr >= 0 && cr <= 1 ? entu::MaxShell(cr, a[2]) : kNaN;
   const Arrangement arr{a[2] == 1 ? "one 1-2 shell pass" : "n 1-2 shell passes in series",
                         a[2] == 1 ? "2/(1 + Cr + sqrt(1 + Cr^2))"
                                   : "the series rule applied to 2/(1 + Cr + sqrt(1 + Cr^2))"};
-  if (!EffOk("ntu_shell", a[0], a[1], max_eff, arr, s)) return kNaN;
-  const double ntu = entu::NtuShell(a[0], a[1], a[2]);
+  if (!EffOk("ntu_shell", a[0], cr, max_eff, arr, s)) return kNaN;
+  const double ntu = entu::NtuShell(a[0], cr, a[2]);
   // Rounding can put eff a hair under the computed maximum yet past the
   // one-shell limit tanh < 1.
   if (std::isnan(ntu)) {
@@ -344,34 +359,37 @@ double NtuShellFn(const double* a, Sink& s) {
   return ntu;
 }
 double NtuCrossCmaxMixedFn(const double* a, Sink& s) {
-  const double max_eff = a[1] >= 0 && a[1] <= 1 ? entu::MaxCrossCmaxMixed(a[1]) : kNaN;
-  if (!EffOk("ntu_cross_cmax_mixed", a[0], a[1], max_eff, kCmaxArr, s)) return kNaN;
-  const double ntu = entu::NtuCrossCmaxMixed(a[0], a[1]);
+  const double cr = CrArg(a[1]);
+  const double max_eff = cr >= 0 && cr <= 1 ? entu::MaxCrossCmaxMixed(cr) : kNaN;
+  if (!EffOk("ntu_cross_cmax_mixed", a[0], cr, max_eff, kCmaxArr, s)) return kNaN;
+  const double ntu = entu::NtuCrossCmaxMixed(a[0], cr);
   if (std::isnan(ntu)) {
     return Fail(s, "ntu_cross_cmax_mixed: eff = {:.6g} is at the maximum {:.6g}", a[0], max_eff);
   }
   return ntu;
 }
 double NtuCrossCminMixedFn(const double* a, Sink& s) {
-  const double max_eff = a[1] >= 0 && a[1] <= 1 ? entu::MaxCrossCminMixed(a[1]) : kNaN;
-  if (!EffOk("ntu_cross_cmin_mixed", a[0], a[1], max_eff, kCminArr, s)) return kNaN;
-  const double ntu = entu::NtuCrossCminMixed(a[0], a[1]);
+  const double cr = CrArg(a[1]);
+  const double max_eff = cr >= 0 && cr <= 1 ? entu::MaxCrossCminMixed(cr) : kNaN;
+  if (!EffOk("ntu_cross_cmin_mixed", a[0], cr, max_eff, kCminArr, s)) return kNaN;
+  const double ntu = entu::NtuCrossCminMixed(a[0], cr);
   if (std::isnan(ntu)) {
     return Fail(s, "ntu_cross_cmin_mixed: eff = {:.6g} is at the maximum {:.6g}", a[0], max_eff);
   }
   return ntu;
 }
 double NtuCrossUnmixedFn(const double* a, Sink& s) {
-  if (!EffOk("ntu_cross_unmixed", a[0], a[1], entu::MaxCrossUnmixed(a[1]), kUnmixedArr, s)) {
+  const double cr = CrArg(a[1]);
+  if (!EffOk("ntu_cross_unmixed", a[0], cr, entu::MaxCrossUnmixed(cr), kUnmixedArr, s)) {
     return kNaN;
   }
-  const double ntu = entu::NtuCrossUnmixed(a[0], a[1]);
+  const double ntu = entu::NtuCrossUnmixed(a[0], cr);
   if (std::isnan(ntu)) {
     return Fail(s,
                 "ntu_cross_unmixed: eff = {:.6g} at Cr = {:.6g} needs NTU > {:.0e}, beyond the "
                 "range the exact series is summed for (effectiveness approaches 1 only as "
                 "NTU -> infinity)",
-                a[0], a[1], entu::kMaxSeriesNtu);
+                a[0], cr, entu::kMaxSeriesNtu);
   }
   return ntu;
 }

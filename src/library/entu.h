@@ -12,6 +12,8 @@
 // Cr outside [0, 1], n not a positive whole number, NaN, and for an inverse
 // whose eff is negative or not below the arrangement's maximum effectiveness
 // (the message names that maximum).  None of them has a validity warning.
+// A Cr in (1, 1 + 1e-12], the rounding of a balanced exchanger's
+// C_min/C_max, is read as 1.
 //
 // Every eff kernel is exact at Cr = 0: it returns -expm1(-NTU) = 1 - e^-NTU,
 // the value for a condensing or boiling stream, and is continuous as Cr -> 0.

@@ -317,7 +317,11 @@ TEST(EntuLimits, CounterContinuousThroughCrOne) {
     EXPECT_NEAR(Eval("eff_counter", {ntu, 1 - 1e-15}), limit, 1e-14 * (1 + ntu * ntu));
     // The inverse likewise.
     EXPECT_NEAR(Eval("ntu_counter", {limit, 1 - 1e-15}), ntu, 1e-12 * (1 + ntu * ntu));
+    // A rounding above 1 (a balanced exchanger's C_min/C_max) reads as 1.
+    EXPECT_EQ(Eval("eff_counter", {ntu, 1 + 1e-15}), Eval("eff_counter", {ntu, 1.0}));
   }
+  // Beyond rounding it is an error that shows the value.
+  EXPECT_NE(ErrorOf("eff_counter", {1.0, 1 + 1e-9}).find("Cr = 1.000000001"), std::string::npos);
 }
 
 TEST(EntuLimits, ShellContinuousThroughCrOne) {
