@@ -9,8 +9,10 @@
 // (report/) take the Results.
 #pragma once
 
+#include <functional>
 #include <memory>
 #include <string>
+#include <utility>
 #include <vector>
 
 namespace heatdeck {
@@ -29,6 +31,15 @@ struct SessionOptions {
   std::string only_case;
   // Report date; overrides `meta date`.  Never taken from the clock.
   std::string date;
+  // Sweeps: worker threads (0: all cores), the shard to evaluate (1 of 1:
+  // all), the quantities written per point (empty: all), and the largest
+  // sweep whose rows are kept in the results for the report and JSON
+  // (larger ones stream to CSV only).
+  int jobs = 0;
+  int shard = 1, shards = 1;
+  std::vector<std::string> sweep_columns;
+  size_t keep_sweep_points = 10000;
+  double max_sweep_points = 1e7;
   // Limits against hostile input.
   size_t max_file_bytes = 64u << 20;
   int max_expression_depth = 200;
@@ -63,7 +74,25 @@ class Session {
   // failed, 2 the deck has errors.
   int ExitStatus() const;
 
+  // Streams the deck's sweep (for the case chosen in the options, else
+  // base) to `on_header` once and `on_row` per point in grid order:
+  // display-unit values of the columns and the point's error ("" if none).
+  // Returns false and sets *error when the deck has no sweep or a column
+  // name is unknown.
+  struct SweepColumn {
+    std::string name;
+    std::string unit;  // display unit
+  };
+  bool StreamSweep(
+      const std::function<void(const std::vector<SweepColumn>&)>& on_header,
+      const std::function<void(const double* values, const std::string& error)>& on_row,
+      std::string* error);
+
  private:
+  std::vector<std::pair<int, double>> CaseOverrides() const;
+  int EffectiveJobs() const;
+  bool SweepColumnsFor(std::vector<int>* columns, std::string* why) const;
+
   struct State;
   std::unique_ptr<State> s_;
 };

@@ -1,6 +1,7 @@
 #include "cli/app.h"
 
 #include <ostream>
+#include <sstream>
 
 #include <CLI/CLI.hpp>
 
@@ -31,7 +32,26 @@ int Main(const std::vector<std::string>& args, Streams io) {
     cmd->add_option("--max-file-size", g.session.max_file_bytes, "Largest file read, in bytes");
     cmd->add_option("--max-depth", g.session.max_expression_depth, "Deepest expression nesting");
     cmd->add_option("--max-statements", g.session.max_statements, "Most statements in a deck");
-    cmd->add_option("-j,--jobs", g.jobs, "Threads for sweeps (default: all cores)");
+    cmd->add_option("-j,--jobs", g.session.jobs, "Threads for sweeps (default: all cores)");
+    cmd->add_option("--columns", g.session.sweep_columns,
+                    "Quantities a sweep writes, besides the swept inputs (default: all)")
+        ->delimiter(',');
+    cmd->add_option("--max-points", g.session.max_sweep_points, "Most points in a sweep grid");
+    cmd->add_option("--keep-points", g.session.keep_sweep_points,
+                    "Largest sweep tabulated in reports and JSON (larger ones: csv only)");
+    cmd->add_option_function<std::string>(
+        "--shard",
+        [&](const std::string& v) {
+          int k = 0, n = 0;
+          char slash = 0;
+          std::istringstream ss(v);
+          if (!(ss >> k >> slash >> n) || slash != '/' || k < 1 || n < 1 || k > n || !ss.eof()) {
+            throw CLI::ValidationError("--shard", "expects K/N with 1 <= K <= N, e.g. 3/8");
+          }
+          g.session.shard = k;
+          g.session.shards = n;
+        },
+        "Evaluate the K-th of N slices of the sweep grid (K/N)");
   };
 
   std::vector<std::string> decks;

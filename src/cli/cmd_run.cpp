@@ -1,3 +1,5 @@
+#include <algorithm>
+#include <cstdio>
 #include <filesystem>
 #include <ostream>
 
@@ -7,11 +9,39 @@
 #include "cli/deck_runner.h"
 #include "eval/results.h"
 #include "lang/diagnostics.h"
+#include "report/csv_writer.h"
+#include "report/output.h"
 #include "report/writers.h"
 
 namespace heatdeck::cli {
 
 namespace fs = std::filesystem;
+
+namespace {
+
+// Streams the deck's sweep as CSV; the header only in the first shard, so
+// that shards concatenated in order equal the whole.
+bool WriteSweepCsv(Session& session, std::FILE* out, bool header, std::string* error) {
+  CsvWriter csv(out);
+  size_t n = 0;
+  const bool ok = session.StreamSweep(
+      [&](const std::vector<Session::SweepColumn>& cols) {
+        n = cols.size();
+        if (!header) return;
+        std::vector<std::string> names, units;
+        for (const auto& c : cols) {
+          names.push_back(c.name);
+          units.push_back(c.unit);
+        }
+        csv.Header(names, units);
+      },
+      [&](const double* values, const std::string& err) { csv.Row(values, n, err); }, error);
+  if (ok && !csv.ok()) *error = "write error";
+  std::fflush(out);
+  return ok && csv.ok();
+}
+
+}  // namespace
 
 int RunRun(const std::vector<std::string>& decks, const std::string& out_dir,
            const std::vector<std::string>& format_names, const GlobalOptions& g, Streams io) {
@@ -48,6 +78,15 @@ int RunRun(const std::vector<std::string>& decks, const std::string& out_dir,
       status = std::max(status, s);
       continue;  // nothing is written for a deck with errors
     }
+    if (to_stdout && formats[0] == Format::kCsv) {
+      std::string error;
+      if (!WriteSweepCsv(session, stdout, g.session.shard == 1, &error)) {
+        io.err << "heatdeck: " << error << "\n";
+        return kUsage;
+      }
+      status = std::max(status, s);
+      continue;
+    }
     if (to_stdout) {
       std::string text, error;
       if (!RenderText(session.results(), session.diagnostics(), formats[0], &text, &error)) {
@@ -63,7 +102,22 @@ int RunRun(const std::vector<std::string>& decks, const std::string& out_dir,
     for (Format f : formats) {
       const std::string target = (fs::path(out_dir) / (stem + "." + Extension(f))).string();
       std::string error;
-      if (!WriteOutput(session.results(), session.diagnostics(), f, target, &error)) {
+      const bool written =
+          f == Format::kCsv
+              ? WriteViaTemp(
+                    target,
+                    [&](const std::string& tmp, std::string* err) {
+                      std::FILE* file = std::fopen(tmp.c_str(), "wb");
+                      if (file == nullptr) {
+                        *err = "cannot create the file";
+                        return false;
+                      }
+                      const bool ok = WriteSweepCsv(session, file, g.session.shard == 1, err);
+                      return std::fclose(file) == 0 && ok;
+                    },
+                    &error)
+              : WriteOutput(session.results(), session.diagnostics(), f, target, &error);
+      if (!written) {
         io.err << fmt::format("heatdeck: {}: {}\n", target, error);
         status = std::max(status, kUsage);
         continue;

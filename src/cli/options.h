@@ -10,7 +10,6 @@ namespace heatdeck::cli {
 
 struct GlobalOptions {
   SessionOptions session;
-  int jobs = 0;  // 0: all cores
   bool quiet = false;
 };
 

@@ -221,7 +221,8 @@ QuantityMessage Program::Explain(int quantity) const {
       return m;
     }
   }
-  Explainer x(model_, values_);
+  const std::vector<double> values = frame();
+  Explainer x(model_, values);
   x.Eval(q.expr);
   QuantityMessage m;
   m.kind = QuantityMessage::Kind::kError;

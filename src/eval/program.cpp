@@ -53,6 +53,36 @@ struct Program::CallSite : library::Sink {
   }
 };
 
+// A table interpolation site: NAME.COLUMN(x).
+struct Program::TableSite {
+  const TableDef* table = nullptr;
+  int column = 0;
+  int quantity = -1;
+  Program* program = nullptr;
+
+  static double Trampoline(void* data, double x) {
+    auto* site = static_cast<TableSite*>(data);
+    double v = kNaN;
+    if (site->table->table.Interpolate(site->column, x, &v)) return v;
+    const auto& cols = site->table->table.columns;
+    const units::Unit& u = cols[0].unit;
+    const auto& arg = cols[0].si;
+    site->program->library_error_ = true;
+    site->program->recorded_.push_back(Recorded{
+        site->quantity,
+        QuantityMessage{
+            QuantityMessage::Kind::kError,
+            fmt::format("table '{}' column '{}': {} = {} {} is outside the table's range {} … {} "
+                        "{} (no extrapolation)",
+                        site->table->name, cols[static_cast<size_t>(site->column)].name,
+                        cols[0].name, units::FormatSig(u.FromSi(x), 6), u.text,
+                        units::FormatSig(u.FromSi(arg.front()), 6),
+                        units::FormatSig(u.FromSi(arg.back()), 6), u.text),
+            {}}});
+    return kNaN;
+  }
+};
+
 struct Program::Step {
   int quantity = -1;
   mu::Parser parser;
@@ -73,12 +103,14 @@ struct Program::CheckStep {
 class Translator {
  public:
   Translator(const Model& m, mu::Parser& p, double* values,
-             std::vector<std::unique_ptr<Program::CallSite>>* sites, Program* program, int quantity,
-             bool strict_equal)
+             std::vector<std::unique_ptr<Program::CallSite>>* sites,
+             std::vector<std::unique_ptr<Program::TableSite>>* table_sites, Program* program,
+             int quantity, bool strict_equal)
       : m_(m),
         p_(p),
         values_(values),
         sites_(sites),
+        table_sites_(table_sites),
         program_(program),
         quantity_(quantity),
         strict_equal_(strict_equal) {}
@@ -140,6 +172,17 @@ class Translator {
       }
       return fmt::format("{}({})", b.name, Args(e, 0));
     }
+    if (info.table >= 0) {
+      auto site = std::make_unique<Program::TableSite>();
+      site->table = &m_.tables[static_cast<size_t>(info.table)];
+      site->column = info.column;
+      site->quantity = quantity_;
+      site->program = program_;
+      const std::string name = fmt::format("t{}", table_sites_->size());
+      p_.DefineFunUserData(name, &Program::TableSite::Trampoline, site.get(), false);
+      table_sites_->push_back(std::move(site));
+      return fmt::format("{}({})", name, Args(e, 0));
+    }
     // A library function: its own callback name per call site, with the site
     // as user data, so warnings land on the right quantity.
     auto site = std::make_unique<Program::CallSite>();
@@ -156,6 +199,7 @@ class Translator {
   mu::Parser& p_;
   double* values_;
   std::vector<std::unique_ptr<Program::CallSite>>* sites_;
+  std::vector<std::unique_ptr<Program::TableSite>>* table_sites_;
   Program* program_;
   int quantity_;
   bool strict_equal_;
@@ -163,18 +207,41 @@ class Translator {
 
 Program::Program(const Model& model, std::vector<int> steps)
     : model_(model), steps_idx_(std::move(steps)), values_(model.quantities.size(), kNaN) {
-  Build();
+  frame_ = values_.data();
+  Build(true);
+}
+
+Program::Program(const Model& model, std::vector<int> steps, double* frame, bool with_checks)
+    : model_(model), steps_idx_(std::move(steps)), frame_(frame) {
+  Build(with_checks);
+}
+
+int Program::AddExpression(const Expr* e) {
+  auto step = std::make_unique<Step>();
+  Translator t(model_, step->parser, frame_, &sites_, &table_sites_, this, -1, false);
+  step->text = t.Text(e);
+  step->parser.SetExpr(step->text);
+  extra_.push_back(std::move(step));
+  return static_cast<int>(extra_.size()) - 1;
+}
+
+double Program::Eval(int handle) {
+  try {
+    return extra_[static_cast<size_t>(handle)]->parser.Eval();
+  } catch (const mu::Parser::exception_type&) {
+    return kNaN;
+  }
 }
 
 Program::~Program() = default;
 
 std::unique_ptr<Program> Program::Clone() const {
   auto p = std::make_unique<Program>(model_, steps_idx_);
-  p->values_ = values_;
+  std::copy(frame_, frame_ + model_.quantities.size(), p->values_.begin());
   return p;
 }
 
-void Program::Build() {
+void Program::Build(bool with_checks) {
   for (int qi : steps_idx_) {
     const Quantity& q = model_.quantities[static_cast<size_t>(qi)];
     auto step = std::make_unique<Step>();
@@ -184,22 +251,22 @@ void Program::Build() {
       steps_.push_back(std::move(step));
       continue;
     }
-    Translator t(model_, step->parser, values_.data(), &sites_, this, qi, false);
+    Translator t(model_, step->parser, frame_, &sites_, &table_sites_, this, qi, false);
     step->text = t.Text(q.expr);
     step->parser.SetExpr(step->text);
     steps_.push_back(std::move(step));
   }
-  for (size_t ci = 0; ci < model_.checks.size(); ++ci) {
+  for (size_t ci = 0; with_checks && ci < model_.checks.size(); ++ci) {
     const CheckDef& c = model_.checks[ci];
     auto step = std::make_unique<CheckStep>();
     step->check = static_cast<int>(ci);
-    Translator whole(model_, step->whole, values_.data(), &sites_, this, -1, false);
+    Translator whole(model_, step->whole, frame_, &sites_, &table_sites_, this, -1, false);
     step->whole.SetExpr(whole.Text(c.expr));
     if (c.has_sides) {
       step->sides = true;
-      Translator l(model_, step->lhs, values_.data(), &sites_, this, -1, false);
+      Translator l(model_, step->lhs, frame_, &sites_, &table_sites_, this, -1, false);
       step->lhs.SetExpr(l.Text(c.expr->args[0]));
-      Translator r(model_, step->rhs, values_.data(), &sites_, this, -1, false);
+      Translator r(model_, step->rhs, frame_, &sites_, &table_sites_, this, -1, false);
       step->rhs.SetExpr(r.Text(c.expr->args[1]));
     }
     checks_.push_back(std::move(step));
@@ -209,7 +276,7 @@ void Program::Build() {
 void Program::LoadGivens() {
   for (size_t i = 0; i < model_.quantities.size(); ++i) {
     const Quantity& q = model_.quantities[i];
-    if (q.kind == QuantityKind::kGiven) values_[i] = q.given_si;
+    if (q.kind == QuantityKind::kGiven) frame_[i] = q.given_si;
   }
 }
 
@@ -238,7 +305,7 @@ bool Program::Run() {
           {}};
       return false;
     }
-    values_[static_cast<size_t>(s->quantity)] = v;
+    frame_[static_cast<size_t>(s->quantity)] = v;
     if (!std::isfinite(v) || library_error_) {
       failed_step_ = s->quantity;
       failure_ = Explain(s->quantity);
@@ -261,7 +328,7 @@ void Program::RunAll(CaseResult* out) {
     for (int d : q.deps) inputs_ok = inputs_ok && out->ok[static_cast<size_t>(d)];
     if (!inputs_ok) {
       out->ok[qi] = false;
-      values_[qi] = kNaN;
+      frame_[qi] = kNaN;
       continue;
     }
     library_error_ = false;
@@ -274,10 +341,10 @@ void Program::RunAll(CaseResult* out) {
           QuantityMessage::Kind::kError, fmt::format("internal error: {}", e.GetMsg()), {}});
       continue;
     }
-    values_[qi] = v;
+    frame_[qi] = v;
     if (!std::isfinite(v) || library_error_) {
       out->ok[qi] = false;
-      values_[qi] = kNaN;
+      frame_[qi] = kNaN;
       if (!library_error_) out->messages[qi].push_back(Explain(s->quantity));
     }
   }
@@ -294,7 +361,7 @@ void Program::RunChecks(std::vector<CheckResult>* out, int* failed) const {
     const CheckDef& c = model_.checks[static_cast<size_t>(s->check)];
     CheckResult& r = (*out)[static_cast<size_t>(s->check)];
     bool inputs_ok = true;
-    for (int d : c.deps) inputs_ok = inputs_ok && std::isfinite(values_[static_cast<size_t>(d)]);
+    for (int d : c.deps) inputs_ok = inputs_ok && std::isfinite(frame_[static_cast<size_t>(d)]);
     if (!inputs_ok) continue;
     try {
       if (s->sides) {

@@ -19,9 +19,13 @@ namespace heatdeck {
 
 class Program {
  public:
-  // Compiles `steps` (quantity indices in dependency order) and the checks.
-  // The model must outlive the program.
+  // Compiles `steps` (quantity indices in dependency order) and the checks,
+  // over a frame of its own.  The model must outlive the program.
   Program(const Model& model, std::vector<int> steps);
+  // The same over an external frame (Model::quantities.size() doubles that
+  // outlive the program), so that several programs (the stages of a solve)
+  // share one frame; checks are compiled only when with_checks.
+  Program(const Model& model, std::vector<int> steps, double* frame, bool with_checks);
   ~Program();
   Program(const Program&) = delete;
   Program& operator=(const Program&) = delete;
@@ -31,8 +35,14 @@ class Program {
 
   // The frame: SI values indexed like Model::quantities.  Set inputs here
   // before Run().
-  double* values() { return values_.data(); }
-  const std::vector<double>& frame() const { return values_; }
+  double* values() { return frame_; }
+  std::vector<double> frame() const { return {frame_, frame_ + model_.quantities.size()}; }
+
+  // Compiles an extra expression (a solve's condition side) over the frame;
+  // returns a handle for Eval().
+  int AddExpression(const Expr* e);
+  // Evaluates an expression added with AddExpression (NaN on failure).
+  double Eval(int handle);
 
   // Sets every given to its value in the deck.
   void LoadGivens();
@@ -64,22 +74,26 @@ class Program {
   // The muParser text of a quantity's expression (for tests and debugging).
   std::string ExpressionText(int quantity) const;
 
-  // Internal, public only so that the translator in program.cpp can name it.
+  // Internal, public only so that the translator in program.cpp can name them.
   struct CallSite;
+  struct TableSite;
 
  private:
   struct Step;
   struct CheckStep;
 
-  void Build();
+  void Build(bool with_checks);
   QuantityMessage Explain(int quantity) const;
 
   const Model& model_;
   std::vector<int> steps_idx_;
-  std::vector<double> values_;
+  std::vector<double> values_;  // the frame when the program owns it
+  double* frame_ = nullptr;
+  std::vector<std::unique_ptr<Step>> extra_;
   std::vector<std::unique_ptr<Step>> steps_;
   std::vector<std::unique_ptr<CheckStep>> checks_;
   std::vector<std::unique_ptr<CallSite>> sites_;
+  std::vector<std::unique_ptr<TableSite>> table_sites_;
   std::vector<Recorded> recorded_;
   int current_quantity_ = -1;
   int failed_step_ = -1;

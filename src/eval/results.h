@@ -39,6 +39,19 @@ struct SolveResult {
   std::string error;  // why it failed, when it did
 };
 
+// A temperature profile along the exchanger (the `profile` statement),
+// computed by the evaluator for one case: hot and cold stream temperatures at
+// fractions x of the heat-transfer area, x = 0 where the hot stream enters.
+struct ProfileResult {
+  int profile = -1;  // index into Model::profiles
+  bool counterflow = true;
+  std::vector<double> x;        // 0 … 1
+  std::vector<double> hot_si;   // K
+  std::vector<double> cold_si;  // K
+  bool ok = false;              // false when the end temperatures are inconsistent
+  std::string error;
+};
+
 // One evaluation of the whole deck: the base inputs or one case's.
 struct CaseResult {
   std::string name;  // "base" or the case name
@@ -49,6 +62,7 @@ struct CaseResult {
   std::vector<std::vector<QuantityMessage>> messages;  // indexed like values
   std::vector<CheckResult> checks;                     // indexed like Model::checks
   std::vector<SolveResult> solves;                     // indexed like Model::solves
+  std::vector<ProfileResult> profiles;                 // indexed like Model::profiles
   int failed_checks = 0;
   int warnings = 0;
 };
@@ -62,19 +76,6 @@ struct SweepResult {
   size_t points = 0;
   std::vector<std::vector<double>> rows;  // SI values per point, per column
   std::vector<std::string> row_errors;    // per point, "" when the point evaluated
-};
-
-// A temperature profile along the exchanger (the `profile` statement),
-// computed by the evaluator for one case: hot and cold stream temperatures at
-// fractions x of the heat-transfer area, x = 0 where the hot stream enters.
-struct ProfileResult {
-  int profile = -1;  // index into Model::profiles
-  bool counterflow = true;
-  std::vector<double> x;        // 0 … 1
-  std::vector<double> hot_si;   // K
-  std::vector<double> cold_si;  // K
-  bool ok = false;              // false when the end temperatures are inconsistent
-  std::string error;
 };
 
 // A file that went into the results, for the report's appendix.

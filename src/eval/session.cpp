@@ -1,15 +1,20 @@
 #include "heatdeck/session.h"
 
+#include <algorithm>
 #include <filesystem>
+#include <thread>
 
 #include <fmt/format.h>
 
+#include "eval/evaluator.h"
 #include "eval/files.h"
 #include "eval/program.h"
 #include "eval/results.h"
+#include "eval/sweep.h"
 #include "lang/diagnostics.h"
 #include "lang/parser.h"
 #include "model/builder.h"
+#include "model/stdlib_files.h"
 
 #ifndef HEATDECK_VERSION
 #define HEATDECK_VERSION "0.0.0"
@@ -29,6 +34,7 @@ struct Session::State {
   std::vector<std::unique_ptr<Deck>> templates;
   std::unique_ptr<Model> model;
   Results results;
+  Plan plan;
   bool loaded_ok = false;
   bool evaluated = false;
 };
@@ -69,14 +75,43 @@ bool Session::LoadText(const std::string& name, std::string text, const SessionO
   std::vector<std::string> allowed = {s.deck_dir};
   for (const auto& dir : options.allow_paths) allowed.push_back(CanonicalDir(dir));
   if (!options.stdlib_dir.empty()) allowed.push_back(CanonicalDir(options.stdlib_dir));
+  build.max_sweep_points = options.max_sweep_points;
   build.load = [this, allowed](const std::string& from_file, const std::string& path,
                                std::string* loaded_name, std::string_view* loaded_text,
                                std::string* why) {
     const std::string base = CanonicalDir(fs::path(from_file).parent_path().string());
     std::string resolved;
-    if (!ResolveContained(base, path, allowed, &resolved, why)) return false;
     std::string content;
-    if (!ReadWholeFile(resolved, s_->options.max_file_bytes, &content, why)) return false;
+    if (ResolveContained(base, path, allowed, &resolved, why)) {
+      if (!ReadWholeFile(resolved, s_->options.max_file_bytes, &content, why)) return false;
+    } else {
+      // Not beside the deck: the template library, installed or built in.
+      const std::string local_why = *why;
+      std::string rel = path;
+      if (rel.rfind("stdlib/", 0) == 0) rel = rel.substr(7);
+      bool found = false;
+      if (!s_->options.stdlib_dir.empty()) {
+        const std::string dir = CanonicalDir(s_->options.stdlib_dir);
+        if (ResolveContained(dir, rel, {dir}, &resolved, why)) {
+          if (!ReadWholeFile(resolved, s_->options.max_file_bytes, &content, why)) return false;
+          found = true;
+        }
+      } else if (fs::path(rel).is_relative()) {
+        for (const EmbeddedFile& f : StdlibFiles()) {
+          if (f.name == rel) {
+            resolved = "<stdlib>/" + f.name;
+            content = f.text;
+            found = true;
+          }
+        }
+      }
+      if (!found) {
+        *why = local_why == "no such file"
+                   ? "no such file beside the deck or in the template library"
+                   : local_why;
+        return false;
+      }
+    }
     s_->results.files.push_back(InputFile{resolved, Sha256Hex(content)});
     const std::string_view n = s_->files.Add(resolved, std::move(content));
     *loaded_name = std::string(n);
@@ -106,6 +141,15 @@ void ReportRuntimeErrors(const Model& model, const CaseResult& c, Diagnostics& d
 
 }  // namespace
 
+std::vector<std::pair<int, double>> Session::CaseOverrides() const {
+  const std::string& only = s_->options.only_case;
+  if (only.empty() || only == "base") return {};
+  for (const CaseDef& cd : s_->model->cases) {
+    if (cd.name == only) return cd.overrides;
+  }
+  return {};
+}
+
 bool Session::Evaluate() {
   State& s = *s_;
   if (!s.loaded_ok) return false;
@@ -120,9 +164,27 @@ bool Session::Evaluate() {
       if (k == "date") r.date = v;
     }
   }
+  const std::string& only = s.options.only_case;
+  if (!only.empty() && only != "base") {
+    bool found = false;
+    for (const CaseDef& cd : m.cases) found = found || cd.name == only;
+    if (!found) {
+      Diagnostic& d = s.diags.Error(SourceRange{s.deck_name, 0, 0, 0},
+                                    fmt::format("the deck has no case '{}'", only));
+      std::string names = "base";
+      for (const CaseDef& cd : m.cases) names += ", " + cd.name;
+      d.notes.push_back("its cases: " + names);
+      return false;
+    }
+  }
 
   // compile
-  Program program(m, m.order);
+  s.plan = MakePlan(m);
+  if (!s.plan.error.empty()) {
+    s.diags.Error(s.plan.error_range, s.plan.error);
+    return false;
+  }
+  Evaluator ev(m, s.plan);
 
   // evaluate: the base inputs, then each case's.
   auto run_case = [&](const std::string& name, const std::string& description,
@@ -130,36 +192,124 @@ bool Session::Evaluate() {
     CaseResult c;
     c.name = name;
     c.description = description;
-    program.LoadGivens();
-    for (const auto& [qi, v] : overrides) {
-      program.values()[qi] = v;
-      c.overridden.push_back(qi);
-    }
-    program.RunAll(&c);
-    c.values = program.frame();
-    program.RunChecks(&c.checks, &c.failed_checks);
+    ev.LoadInputs(overrides);
+    for (const auto& [qi, v] : overrides) c.overridden.push_back(qi);
+    ev.EvaluateCase(&c);
     for (const auto& msgs : c.messages) {
       for (const auto& msg : msgs) c.warnings += msg.kind == QuantityMessage::Kind::kWarning;
     }
     ReportRuntimeErrors(m, c, s.diags);
     r.cases.push_back(std::move(c));
   };
-  const std::string& only = s.options.only_case;
-  if (!only.empty() && only != "base") {
-    bool found = false;
-    for (const CaseDef& cd : m.cases) found = found || cd.name == only;
-    if (!found) {
-      s.diags.Error(SourceRange{s.deck_name, 0, 0, 0},
-                    fmt::format("the deck has no case '{}'", only));
-      return false;
-    }
-  }
   if (only.empty() || only == "base") run_case("base", "", {});
   for (const CaseDef& cd : m.cases) {
     if (only.empty() || only == cd.name) run_case(cd.name, cd.description, cd.overrides);
   }
   s.evaluated = true;
-  return !s.diags.has_errors();
+  if (s.diags.has_errors()) return false;
+
+  // A small sweep is kept for the report and JSON; a large one streams.
+  const size_t points = SweepGridSize(m);
+  if (points > 0 && points <= s.options.keep_sweep_points) {
+    SweepResult sr;
+    for (const SweepDef& sd : m.sweeps) sr.swept.push_back(sd.quantity);
+    std::string why;
+    if (!SweepColumnsFor(&sr.columns, &why)) {
+      s.diags.Error(SourceRange{s.deck_name, 0, 0, 0}, why);
+      return false;
+    }
+    sr.points = points;
+    struct Keep : SweepSink {
+      SweepResult* out;
+      size_t n;
+      void Point(size_t, const double* values, const std::string& error) override {
+        out->rows.emplace_back(values, values + n);
+        out->row_errors.push_back(error);
+      }
+    } keep;
+    keep.out = &sr;
+    keep.n = sr.columns.size();
+    SweepOptions so;
+    so.jobs = EffectiveJobs();
+    so.columns = sr.columns;
+    RunSweep(m, s.plan, CaseOverrides(), so, keep);
+    r.sweeps.push_back(std::move(sr));
+  }
+  return true;
+}
+
+int Session::EffectiveJobs() const {
+  if (s_->options.jobs > 0) return s_->options.jobs;
+  const unsigned hw = std::thread::hardware_concurrency();
+  return hw == 0 ? 1 : static_cast<int>(hw);
+}
+
+bool Session::SweepColumnsFor(std::vector<int>* columns, std::string* why) const {
+  const Model& m = *s_->model;
+  if (s_->options.sweep_columns.empty()) {
+    *columns = DefaultSweepColumns(m);
+    return true;
+  }
+  columns->clear();
+  for (const SweepDef& sd : m.sweeps) columns->push_back(sd.quantity);
+  for (const std::string& name : s_->options.sweep_columns) {
+    const int q = m.Find(name);
+    if (q < 0) {
+      std::vector<std::string> names;
+      for (const auto& qq : m.quantities) names.push_back(qq.name);
+      const std::string near = NearestName(name, names);
+      *why = fmt::format("--columns: the deck has no quantity '{}'{}", name,
+                         near.empty() ? "" : fmt::format("; did you mean '{}'?", near));
+      return false;
+    }
+    if (std::find(columns->begin(), columns->end(), q) == columns->end()) columns->push_back(q);
+  }
+  return true;
+}
+
+bool Session::StreamSweep(
+    const std::function<void(const std::vector<SweepColumn>&)>& on_header,
+    const std::function<void(const double* values, const std::string& error)>& on_row,
+    std::string* error) {
+  State& s = *s_;
+  if (!s.evaluated) {
+    *error = "the deck has not been evaluated";
+    return false;
+  }
+  const Model& m = *s.model;
+  if (m.sweeps.empty()) {
+    *error = "csv output is for sweeps, and this deck has no sweep";
+    return false;
+  }
+  std::vector<int> columns;
+  if (!SweepColumnsFor(&columns, error)) return false;
+  std::vector<SweepColumn> header;
+  std::vector<const units::Unit*> unit;
+  for (int q : columns) {
+    const Quantity& qq = m.quantities[static_cast<size_t>(q)];
+    header.push_back(SweepColumn{qq.name, qq.display.text});
+    unit.push_back(&qq.display);
+  }
+  on_header(header);
+  struct Stream : SweepSink {
+    const std::function<void(const double*, const std::string&)>* row;
+    std::vector<const units::Unit*>* unit;
+    std::vector<double> shown;
+    void Point(size_t, const double* values, const std::string& err) override {
+      for (size_t c = 0; c < shown.size(); ++c) shown[c] = (*unit)[c]->FromSi(values[c]);
+      (*row)(shown.data(), err);
+    }
+  } stream;
+  stream.row = &on_row;
+  stream.unit = &unit;
+  stream.shown.resize(columns.size());
+  SweepOptions so;
+  so.jobs = EffectiveJobs();
+  so.shard = s.options.shard;
+  so.shards = s.options.shards;
+  so.columns = columns;
+  RunSweep(m, s.plan, CaseOverrides(), so, stream);
+  return true;
 }
 
 int Session::ExitStatus() const {

@@ -409,6 +409,33 @@ class Parser {
     return true;
   }
 
+  // profile counter|parallel: hot T_h1 to T_h2, cold T_c1 to T_c2 ["caption"]
+  bool ParseProfile(Stmt& s) {
+    s.kind = StmtKind::kProfile;
+    Advance();
+    if (!AtWord("counter") && !AtWord("parallel")) return Fail("'counter' or 'parallel'");
+    s.name = cur_.text;
+    s.name_range = cur_.range;
+    Advance();
+    if (!ExpectOp(":")) return false;
+    for (const char* side : {"hot", "cold"}) {
+      if (!ExpectWord(side)) return false;
+      for (int end = 0; end < 2; ++end) {
+        if (end == 1 && !ExpectWord("to")) return false;
+        if (cur_.kind != TokKind::kIdent || IsKeyword(cur_.text)) {
+          return Fail(end == 0 ? "the inlet temperature's name" : "the outlet temperature's name");
+        }
+        Expr& e = deck_.NewExpr(ExprKind::kName, cur_.range);
+        e.text = cur_.text;
+        s.streams.push_back(&e);
+        Advance();
+      }
+      if (side[0] == 'h' && !ExpectOp(",")) return false;
+    }
+    ParseAttrs(s.attrs);
+    return true;
+  }
+
   bool ParseCalc(Stmt& s) {
     s.kind = StmtKind::kCalc;
     if (!ExpectName(&s.name, &s.name_range, "a quantity name")) return false;

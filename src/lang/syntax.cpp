@@ -80,6 +80,8 @@ const char* StmtKeyword(StmtKind k) {
       return "table";
     case StmtKind::kPrefer:
       return "prefer";
+    case StmtKind::kProfile:
+      return "profile";
   }
   return "?";
 }
@@ -181,6 +183,11 @@ std::string Dump(const Deck& deck) {
         for (size_t i = 0; i < s.units.size(); ++i) {
           out += (i == 0 ? "" : ", ") + std::string(s.units[i].text);
         }
+        break;
+      case StmtKind::kProfile:
+        out +=
+            fmt::format("{}: hot {} to {}, cold {} to {}", s.name, DumpExpr(*s.streams[0]),
+                        DumpExpr(*s.streams[1]), DumpExpr(*s.streams[2]), DumpExpr(*s.streams[3]));
         break;
     }
     out += DumpAttrs(s.attrs);

@@ -68,6 +68,7 @@ enum class StmtKind {
   kUse,
   kTable,
   kPrefer,
+  kProfile,
 };
 const char* StmtKeyword(StmtKind k);
 
@@ -114,6 +115,9 @@ struct Stmt {
   const Expr* step = nullptr;     // sweep … step
   std::vector<const Expr*> over;  // sweep … over
   std::vector<UnitRef> units;     // prefer
+  // profile: the hot inlet, hot outlet, cold inlet and cold outlet names;
+  // name holds "counter" or "parallel".
+  std::vector<const Expr*> streams;
 };
 
 // One parsed deck file.

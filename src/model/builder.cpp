@@ -65,7 +65,8 @@ class Builder {
       : options_(options), keep_(keep), diags_(d), model_(std::make_unique<Model>()) {}
 
   std::unique_ptr<Model> Run(const Deck& deck) {
-    Collect(deck, "");
+    main_file_ = deck.file;
+    Collect(deck, "", nullptr, "");
     ResolveAll();
     if (!OrderQuantities()) return std::move(model_);
     TypeAll();
@@ -74,14 +75,6 @@ class Builder {
 
  private:
   // ---- collection ---------------------------------------------------------
-
-  struct Scope {
-    std::string prefix;  // "" or "hx."
-  };
-
-  std::string Qualified(const Scope& s, std::string_view name) const {
-    return s.prefix + std::string(name);
-  }
 
   int AddQuantity(Quantity q) {
     auto [it, inserted] =
@@ -106,26 +99,39 @@ class Builder {
     return static_cast<int>(model_->sections.size()) - 1;
   }
 
-  void NotYet(const Stmt& s, const char* what) {
+  // Errors for statements a template may not hold.
+  void NotInTemplate(const Stmt& s) {
     diags_.Error(
         SourceRange{
             s.range.file, s.range.line, s.range.col,
             s.range.col + static_cast<int>(std::string_view(StmtKeyword(s.kind)).size()) - 1},
-        fmt::format("'{}' ({}) is not available in this version of heatdeck yet",
-                    StmtKeyword(s.kind), what));
+        fmt::format("a template cannot hold '{}' statements; write them in the deck that uses "
+                    "the template",
+                    StmtKeyword(s.kind)));
   }
 
-  void Collect(const Deck& deck, const std::string& prefix) {
-    Scope scope{prefix};
+  // Collects the statements of one deck.  prefix is "" for the main deck and
+  // "hx." for a template used as hx; bindings are the template's `with`
+  // list (null for the main deck); scope is the prefix the bindings'
+  // expressions are resolved in (the using deck's).
+  void Collect(const Deck& deck, const std::string& prefix, const Stmt* use_stmt,
+               const std::string& user_prefix) {
+    const bool in_template = use_stmt != nullptr;
+    std::set<std::string_view> bound;
+    if (in_template) {
+      for (const Binding& b : use_stmt->bindings) bound.insert(b.name);
+    }
     for (const Stmt& s : deck.stmts) {
       switch (s.kind) {
         case StmtKind::kTitle:
+          if (in_template) break;  // a template's title heads its section instead
           if (!model_->title.empty()) {
             diags_.Error(s.range, "the deck has a title already");
           }
           model_->title = s.text;
           break;
         case StmtKind::kMeta: {
+          if (in_template) break;
           const std::string key(s.name);
           auto it = std::find_if(model_->meta.begin(), model_->meta.end(),
                                  [&](const auto& kv) { return kv.first == key; });
@@ -137,7 +143,10 @@ class Builder {
           break;
         }
         case StmtKind::kSection:
-          model_->sections.push_back(Section{s.text, {}});
+          model_->sections.push_back(Section{
+              in_template ? fmt::format("{}: {}", prefix.substr(0, prefix.size() - 1), s.text)
+                          : s.text,
+              {}});
           break;
         case StmtKind::kNarrative:
           model_->narrative.push_back(s.text);
@@ -146,7 +155,7 @@ class Builder {
         case StmtKind::kGiven:
         case StmtKind::kCalc: {
           Quantity q;
-          q.name = Qualified(scope, s.name);
+          q.name = prefix + std::string(s.name);
           q.kind = s.kind == StmtKind::kGiven ? QuantityKind::kGiven : QuantityKind::kCalc;
           q.stmt = &s;
           q.expr = s.expr;
@@ -155,9 +164,30 @@ class Builder {
           q.source = s.attrs.source;
           q.section = CurrentSection();
           q.prefix = prefix;
+          std::string scope = prefix;
+          if (in_template && s.kind == StmtKind::kGiven) {
+            const Binding* b = nullptr;
+            for (const Binding& x : use_stmt->bindings) {
+              if (x.name == s.name) b = &x;
+            }
+            if (b != nullptr) {
+              // A bound input: calculated from the using deck's expression.
+              q.kind = QuantityKind::kCalc;
+              q.expr = b->value;
+              q.bound = true;
+              q.binding_range = b->name_range;
+              scope = user_prefix;
+              if (q.source.empty()) {
+                q.source =
+                    fmt::format("bound by 'use … as {}'", prefix.substr(0, prefix.size() - 1));
+              }
+            } else {
+              q.template_default = true;
+            }
+          }
           const int idx = AddQuantity(std::move(q));
           if (idx >= 0) {
-            scope_of_[s.expr] = prefix;
+            scope_of_[model_->quantities[static_cast<size_t>(idx)].expr] = scope;
             AddItem(Section::Item::Kind::kQuantity, idx);
           }
           break;
@@ -175,28 +205,178 @@ class Builder {
           break;
         }
         case StmtKind::kPrefer:
+          if (in_template) break;  // display units are the using deck's choice
           for (const UnitRef& u : s.units) {
             units::Unit unit;
             if (ParseUnitAt(u.text, u.range, &unit)) model_->prefer.push_back(unit);
           }
           break;
         case StmtKind::kCase:
-          NotYet(s, "cases");
+          if (in_template) {
+            NotInTemplate(s);
+          } else {
+            case_stmts_.push_back(&s);
+          }
           break;
         case StmtKind::kSweep:
-          NotYet(s, "sweeps");
+          if (in_template) {
+            NotInTemplate(s);
+          } else {
+            sweep_stmts_.push_back(&s);
+          }
           break;
-        case StmtKind::kSolve:
-          NotYet(s, "solves");
+        case StmtKind::kSolve: {
+          Quantity q;
+          q.name = prefix + std::string(s.name);
+          q.kind = QuantityKind::kSolved;
+          q.stmt = &s;
+          q.range = s.name_range;
+          q.description = s.attrs.description;
+          q.source = s.attrs.source;
+          q.section = CurrentSection();
+          q.prefix = prefix;
+          const int idx = AddQuantity(std::move(q));
+          if (idx >= 0) {
+            SolveDef d;
+            d.stmt = &s;
+            d.unknown = idx;
+            d.lhs = s.expr;
+            d.rhs = s.expr2;
+            scope_of_[s.expr] = prefix;
+            scope_of_[s.expr2] = prefix;
+            model_->solves.push_back(d);
+            AddItem(Section::Item::Kind::kSolve, static_cast<int>(model_->solves.size()) - 1);
+          }
           break;
+        }
         case StmtKind::kUse:
-          NotYet(s, "templates");
+          CollectUse(deck, s, prefix);
           break;
         case StmtKind::kTable:
-          NotYet(s, "property tables");
+          CollectTable(deck, s, prefix);
+          break;
+        case StmtKind::kProfile:
+          profile_stmts_.emplace_back(&s, prefix);
           break;
       }
     }
+    if (in_template) {
+      for (const Binding& b : use_stmt->bindings) {
+        const int q = model_->Find(prefix + std::string(b.name));
+        if (q >= 0 && model_->quantities[static_cast<size_t>(q)].bound) continue;
+        if (q >= 0) {
+          diags_.Error(b.name_range,
+                       fmt::format("'{}' is calculated in the template; only its given inputs can "
+                                   "be bound",
+                                   b.name));
+          continue;
+        }
+        Diagnostic& d =
+            diags_.Error(b.name_range, fmt::format("the template has no input '{}'", b.name));
+        std::vector<std::string> givens;
+        for (const auto& qq : model_->quantities) {
+          if (qq.prefix == prefix && (qq.template_default || qq.bound)) {
+            givens.push_back(qq.name.substr(prefix.size()));
+          }
+        }
+        const std::string near = NearestName(std::string(b.name), givens);
+        if (!near.empty()) d.notes.push_back(fmt::format("did you mean '{}'?", near));
+      }
+    }
+  }
+
+  void CollectUse(const Deck& deck, const Stmt& s, const std::string& prefix) {
+    if (!options_.load) {
+      diags_.Error(s.text_range, "templates cannot be read here");
+      return;
+    }
+    if (static_cast<int>(use_stack_.size()) >= options_.max_use_depth) {
+      diags_.Error(s.text_range,
+                   fmt::format("templates nested more than {} deep", options_.max_use_depth));
+      return;
+    }
+    std::string name, why;
+    std::string_view text;
+    if (!options_.load(std::string(deck.file), s.text, &name, &text, &why)) {
+      diags_.Error(s.text_range, fmt::format("cannot use '{}': {}", s.text, why));
+      return;
+    }
+    if (std::find(use_stack_.begin(), use_stack_.end(), name) != use_stack_.end() ||
+        name == std::string(main_file_)) {
+      std::string chain;
+      for (const auto& f : use_stack_) chain += f + " -> ";
+      diags_.Error(s.text_range,
+                   fmt::format("cycle of templates: {}{}",
+                               chain.empty() ? std::string(main_file_) + " -> " : chain, name));
+      return;
+    }
+    const std::string sub = prefix + std::string(s.name) + ".";
+    if (!used_prefixes_.insert(sub).second) {
+      diags_.Error(s.name_range, fmt::format("the prefix '{}' is used twice", s.name));
+      return;
+    }
+    keep_->push_back(std::make_unique<Deck>());
+    Deck& t = *keep_->back();
+    std::string_view file;
+    for (const auto& f : loaded_names_) {
+      if (*f == name) file = *f;
+    }
+    if (file.empty()) {
+      loaded_names_.push_back(std::make_unique<std::string>(name));
+      file = *loaded_names_.back();
+    }
+    t = Parse(file, text, diags_);
+    std::string title;
+    for (const Stmt& ts : t.stmts) {
+      if (ts.kind == StmtKind::kTitle) title = ts.text;
+    }
+    const std::string label = sub.substr(0, sub.size() - 1);
+    const std::string resume =
+        model_->sections.empty() ? std::string() : model_->sections.back().title;
+    model_->sections.push_back(Section{title.empty() ? fmt::format("{}: template {}", label, s.text)
+                                                     : fmt::format("{}: {}", label, title),
+                                       {}});
+    model_->uses.push_back(UseDef{&s, label, name});
+    use_stack_.push_back(name);
+    Collect(t, sub, &s, prefix);
+    use_stack_.pop_back();
+    // The using deck's statements after the `use` continue its own section.
+    model_->sections.push_back(Section{resume.empty() ? "" : resume + " (continued)", {}});
+  }
+
+  void CollectTable(const Deck& deck, const Stmt& s, const std::string& prefix) {
+    TableDef t;
+    t.name = prefix + std::string(s.name);
+    t.stmt = &s;
+    if (!options_.load) {
+      diags_.Error(s.text_range, "tables cannot be read here");
+      return;
+    }
+    std::string name, why;
+    std::string_view text;
+    if (!options_.load(std::string(deck.file), s.text, &name, &text, &why)) {
+      diags_.Error(s.text_range, fmt::format("cannot read table '{}': {}", s.text, why));
+      return;
+    }
+    loaded_names_.push_back(std::make_unique<std::string>(name));
+    const std::string_view file = *loaded_names_.back();
+    std::vector<library::TableError> errors;
+    if (!library::ParseTableCsv(text, &t.table, &errors)) {
+      for (const auto& e : errors) {
+        diags_.Error(SourceRange{file, e.line, e.column, e.column}, e.message);
+      }
+      return;
+    }
+    t.path = name;
+    for (const auto& other : model_->tables) {
+      if (other.name == t.name) {
+        Diagnostic& d =
+            diags_.Error(s.name_range, fmt::format("table '{}' is defined twice", t.name));
+        d.related.emplace_back(other.stmt->name_range, "first defined here");
+        return;
+      }
+    }
+    model_->tables.push_back(std::move(t));
   }
 
   // Parses a unit written at `range`; reports errors there.
@@ -231,8 +411,9 @@ class Builder {
   void ResolveAll() {
     for (size_t i = 0; i < model_->quantities.size(); ++i) {
       Quantity& q = model_->quantities[i];
+      if (q.expr == nullptr) continue;
       std::set<int> deps;
-      Resolve(q.expr, q.prefix, deps);
+      Resolve(q.expr, scope_of_[q.expr], deps);
       q.deps.assign(deps.begin(), deps.end());
     }
     for (CheckDef& c : model_->checks) {
@@ -240,6 +421,49 @@ class Builder {
       Resolve(c.expr, c.prefix, deps);
       c.deps.assign(deps.begin(), deps.end());
     }
+    for (SolveDef& d : model_->solves) {
+      std::set<int> deps;
+      const std::string& prefix = model_->quantities[static_cast<size_t>(d.unknown)].prefix;
+      Resolve(d.lhs, prefix, deps);
+      Resolve(d.rhs, prefix, deps);
+      d.deps.assign(deps.begin(), deps.end());
+    }
+  }
+
+  // NAME.COLUMN(x) with NAME a table in scope: fills info and returns true.
+  bool ResolveTableCall(const Expr* e, const std::string& prefix, ExprInfo& info) {
+    const std::string name(e->text);
+    const size_t dot = name.rfind('.');
+    if (dot == std::string::npos) return false;
+    const std::string table = prefix + name.substr(0, dot);
+    const std::string column = name.substr(dot + 1);
+    for (size_t t = 0; t < model_->tables.size(); ++t) {
+      const TableDef& td = model_->tables[t];
+      if (td.name != table) continue;
+      const int c = td.table.Find(column);
+      if (c < 1) {
+        std::vector<std::string> cols;
+        std::string list;
+        for (size_t k = 1; k < td.table.columns.size(); ++k) {
+          cols.push_back(td.table.columns[k].name);
+          list += (k > 1 ? ", " : "") + td.table.columns[k].name;
+        }
+        Diagnostic& d = diags_.Error(
+            e->range, c == 0 ? fmt::format("'{}' is the argument column of table '{}'; interpolate "
+                                           "one of: {}",
+                                           column, table, list)
+                             : fmt::format("table '{}' has no column '{}' (it has: {})", table,
+                                           column, list));
+        const std::string near = NearestName(column, cols);
+        if (!near.empty() && c != 0) d.notes.push_back(fmt::format("did you mean '{}'?", near));
+        info.table = -2;  // reported
+        return true;
+      }
+      info.table = static_cast<int>(t);
+      info.column = c;
+      return true;
+    }
+    return false;
   }
 
   void Resolve(const Expr* e, const std::string& prefix, std::set<int>& deps) {
@@ -279,6 +503,10 @@ class Builder {
           }
         }
         if (!found) info.fn = library::FindFunction(name);
+        if (!found && info.fn == nullptr && ResolveTableCall(e, prefix, info)) {
+          for (const Expr* a : e->args) Resolve(a, prefix, deps);
+          return;
+        }
         if (!found && info.fn == nullptr) {
           const int q = model_->Find(prefix + name);
           if (q >= 0) {
@@ -642,6 +870,7 @@ class Builder {
       return t;
     }
     const std::string name(e->text);
+    if (info.table >= 0) return TypeTableCall(e, info, args, bad);
     if (info.builtin >= 0) {
       const BuiltinInfo& b = BuiltinFunctions()[static_cast<size_t>(info.builtin)];
       const int n = static_cast<int>(args.size());
@@ -746,6 +975,41 @@ class Builder {
     return t;
   }
 
+  Type TypeTableCall(const Expr* e, const ExprInfo& info, const std::vector<Type>& args,
+                     bool* bad) {
+    Type t;
+    const TableDef& td = model_->tables[static_cast<size_t>(info.table)];
+    const units::Unit& arg_unit = td.table.columns[0].unit;
+    const units::Unit& col_unit = td.table.columns[static_cast<size_t>(info.column)].unit;
+    if (args.size() != 1) {
+      diags_.Error(e->range, fmt::format("{} takes one argument ({}), got {}", e->text,
+                                         td.table.columns[0].name, args.size()));
+      *bad = true;
+      return t;
+    }
+    if (args[0].boolean) {
+      BoolMisuse(e->args[0], bad);
+      return t;
+    }
+    if (!(args[0].dim == arg_unit.dim)) {
+      diags_.Error(e->args[0]->range,
+                   fmt::format("table '{}' is interpolated in {} [{}], got {}", td.name,
+                               td.table.columns[0].name, arg_unit.text, UnitWords(e->args[0])));
+      *bad = true;
+      return t;
+    }
+    if (!TempCompatible(args[0].temp, arg_unit.kind)) {
+      diags_.Error(e->args[0]->range,
+                   fmt::format("table '{}' is interpolated in {}, got {}", td.name,
+                               TempWord(arg_unit.kind), TempWord(args[0].temp)));
+      *bad = true;
+      return t;
+    }
+    t.dim = col_unit.dim;
+    t.temp = KindFor(col_unit.dim, col_unit.kind);
+    return t;
+  }
+
   static std::string Expectation(const Dimension& d) {
     if (d.dimensionless()) return "a plain number";
     const std::string words = d.Describe();
@@ -789,8 +1053,18 @@ class Builder {
     for (int qi : model_->order) {
       Quantity& q = model_->quantities[static_cast<size_t>(qi)];
       bool bad = false;
+      if (q.kind == QuantityKind::kSolved) {
+        TypeSolved(q, &bad);
+        bad_[static_cast<size_t>(qi)] = bad;
+        continue;
+      }
       if (q.expr == nullptr) continue;
       q.type = TypeOf(q.expr, &bad);
+      if (q.bound && !bad) {
+        TypeBinding(q, &bad);
+        bad_[static_cast<size_t>(qi)] = bad;
+        continue;
+      }
       if (!bad && q.type.boolean) {
         diags_.Error(q.expr->range,
                      "a quantity cannot be a comparison; use a check, or if(condition, a, b)");
@@ -811,6 +1085,316 @@ class Builder {
       bad_[static_cast<size_t>(qi)] = bad;
     }
     for (CheckDef& c : model_->checks) TypeCheck(c);
+    for (SolveDef& d : model_->solves) TypeSolveCondition(d);
+    for (const Stmt* st : case_stmts_) CollectCase(*st);
+    for (const Stmt* st : sweep_stmts_) CollectSweep(*st);
+    for (const auto& [st, prefix] : profile_stmts_) CollectProfile(*st, prefix);
+  }
+
+  // A template input bound by `with`: the binding must have the dimension of
+  // the template's literal; it is shown in the template's unit.
+  void TypeBinding(Quantity& q, bool* bad) {
+    bool lit_bad = false;
+    const Type lit = TypeOf(q.stmt->expr, &lit_bad);
+    if (lit_bad) {
+      *bad = true;
+      return;
+    }
+    const ExprInfo& li = model_->info.at(q.stmt->expr);
+    if (!(lit.dim == q.type.dim)) {
+      diags_.Error(q.expr->range, fmt::format("'{}' of the template is {}, but it is bound to {}",
+                                              q.name, Expectation(lit.dim), UnitWords(q.expr)));
+      *bad = true;
+      return;
+    }
+    if (!TempCompatible(lit.temp, q.type.temp)) {
+      diags_.Error(q.expr->range, fmt::format("'{}' of the template is {}, but it is bound to {}",
+                                              q.name, TempWord(lit.temp), TempWord(q.type.temp)));
+      *bad = true;
+      return;
+    }
+    if (q.type.temp == TempKind::kEither) q.type.temp = lit.temp;
+    q.display = li.unit.text.empty() ? DefaultDisplay(q.type) : li.unit;
+    q.display_explicit = !li.unit.text.empty();
+  }
+
+  // A literal of a case, sweep or solve: its SI value and type; false after
+  // reporting an error.
+  bool LiteralValue(const Expr* e, Type* t, double* si) {
+    bool bad = false;
+    *t = TypeOf(e, &bad);
+    if (bad) return false;
+    *si = model_->info.at(e).si;
+    return true;
+  }
+
+  const units::Unit& LiteralUnit(const Expr* e) const { return model_->info.at(e).unit; }
+
+  // Checks that a literal suits the given it overrides.
+  bool FitsGiven(const Quantity& q, const Expr* lit, const Type& t, const char* what) {
+    if (!(t.dim == q.type.dim)) {
+      diags_.Error(lit->range, fmt::format("{} of '{}' must be {}, got {}", what, q.name,
+                                           Expectation(q.type.dim), UnitWords(lit)));
+      return false;
+    }
+    if (!TempCompatible(t.temp, q.type.temp)) {
+      diags_.Error(lit->range, fmt::format("{} of '{}' must be {}, got {}", what, q.name,
+                                           TempWord(q.type.temp), TempWord(t.temp)));
+      return false;
+    }
+    return true;
+  }
+
+  // A name a case or sweep may vary: a given of the main deck (a template's
+  // inputs are bound with `use … with` instead).
+  int InputNamed(std::string_view name, SourceRange range, const char* what) {
+    const int qi = model_->Find(std::string(name));
+    if (qi < 0) {
+      Diagnostic& d = diags_.Error(range, fmt::format("unknown input '{}'", name));
+      std::vector<std::string> names;
+      for (const auto& q : model_->quantities) {
+        if (q.kind == QuantityKind::kGiven) names.push_back(q.name);
+      }
+      const std::string near = NearestName(std::string(name), names);
+      if (!near.empty()) d.notes.push_back(fmt::format("did you mean '{}'?", near));
+      return -1;
+    }
+    const Quantity& q = model_->quantities[static_cast<size_t>(qi)];
+    if (q.kind != QuantityKind::kGiven) {
+      Diagnostic& d = diags_.Error(
+          range, fmt::format("{} can change only a given input; '{}' is {}", what, name,
+                             q.kind == QuantityKind::kSolved ? "solved for" : "calculated"));
+      d.related.emplace_back(q.range, "defined here");
+      return -1;
+    }
+    if (bad_[static_cast<size_t>(qi)]) return -1;
+    return qi;
+  }
+
+  void CollectCase(const Stmt& s) {
+    const std::string name(s.name);
+    if (name == "base") {
+      diags_.Error(s.name_range, "'base' is the deck as written; name the case otherwise");
+      return;
+    }
+    for (const CaseDef& c : model_->cases) {
+      if (c.name == name) {
+        Diagnostic& d = diags_.Error(s.name_range, fmt::format("case '{}' is defined twice", name));
+        d.related.emplace_back(c.stmt->name_range, "first defined here");
+        return;
+      }
+    }
+    CaseDef c;
+    c.name = name;
+    c.description = s.attrs.description;
+    c.stmt = &s;
+    bool ok = true;
+    for (const Binding& b : s.bindings) {
+      const int qi = InputNamed(b.name, b.name_range, "a case");
+      if (qi < 0) {
+        ok = false;
+        continue;
+      }
+      for (const auto& [other, v] : c.overrides) {
+        if (other == qi) {
+          diags_.Error(b.name_range, fmt::format("case '{}' sets '{}' twice", name, b.name));
+          ok = false;
+        }
+      }
+      Type t;
+      double si = 0;
+      if (!LiteralValue(b.value, &t, &si) ||
+          !FitsGiven(model_->quantities[static_cast<size_t>(qi)], b.value, t, "the value")) {
+        ok = false;
+        continue;
+      }
+      c.overrides.emplace_back(qi, si);
+    }
+    if (ok) model_->cases.push_back(std::move(c));
+  }
+
+  void CollectSweep(const Stmt& s) {
+    const int qi = InputNamed(s.name, s.name_range, "a sweep");
+    if (qi < 0) return;
+    for (const SweepDef& d : model_->sweeps) {
+      if (d.quantity == qi) {
+        Diagnostic& dg = diags_.Error(s.name_range, fmt::format("'{}' is swept twice", s.name));
+        dg.related.emplace_back(d.stmt->name_range, "first swept here");
+        return;
+      }
+    }
+    const Quantity& q = model_->quantities[static_cast<size_t>(qi)];
+    SweepDef d;
+    d.stmt = &s;
+    d.quantity = qi;
+    if (s.step != nullptr) {
+      Type ta, tb, ts;
+      double a = 0, b = 0, st = 0;
+      if (!LiteralValue(s.from, &ta, &a) || !LiteralValue(s.to, &tb, &b) ||
+          !LiteralValue(s.step, &ts, &st)) {
+        return;
+      }
+      if (!FitsGiven(q, s.from, ta, "the start") || !FitsGiven(q, s.to, tb, "the end")) return;
+      if (!(ts.dim == q.type.dim)) {
+        diags_.Error(s.step->range, fmt::format("the step of '{}' must be {}, got {}", q.name,
+                                                Expectation(q.type.dim), UnitWords(s.step)));
+        return;
+      }
+      if (ts.temp == TempKind::kAbsolute) {
+        diags_.Error(s.step->range, "a step is a temperature difference; write it in K or ddegC");
+        return;
+      }
+      // The step is an interval: its SI size uses the unit's factor alone.
+      const Expr* step_lit = s.step->kind == ExprKind::kNeg ? s.step->args[0] : s.step;
+      const double step_si = step_lit->unit.empty()
+                                 ? st
+                                 : (s.step->kind == ExprKind::kNeg ? -1.0 : 1.0) *
+                                       step_lit->number * LiteralUnit(step_lit).factor;
+      if (!(step_si != 0.0) || !std::isfinite(step_si)) {
+        diags_.Error(s.step->range, "a sweep step cannot be zero");
+        return;
+      }
+      const double span = (b - a) / step_si;
+      if (span < 0) {
+        diags_.Error(s.step->range, fmt::format("the step goes away from the end: from {} to {} "
+                                                "needs a step of the other sign",
+                                                Pretty(*s.from), Pretty(*s.to)));
+        return;
+      }
+      // LANGUAGE.md: A + k*S for k = 0 … n, n = floor((B - A)/S + 1e-9).
+      const double n = std::floor(span + 1e-9);
+      if (n + 1 > static_cast<double>(options_.max_sweep_points)) {
+        diags_.Error(s.range,
+                     fmt::format("the sweep of '{}' has {} points, over the limit of {} "
+                                 "(raise it with --max-points)",
+                                 q.name, units::FormatSig(n + 1, 6), options_.max_sweep_points));
+        return;
+      }
+      const long count = static_cast<long>(n) + 1;
+      d.values.reserve(static_cast<size_t>(count));
+      for (long k = 0; k < count; ++k) d.values.push_back(a + static_cast<double>(k) * step_si);
+    } else {
+      for (const Expr* v : s.over) {
+        Type t;
+        double si = 0;
+        if (!LiteralValue(v, &t, &si) || !FitsGiven(q, v, t, "a value")) return;
+        d.values.push_back(si);
+      }
+    }
+    double total = static_cast<double>(d.values.size());
+    for (const SweepDef& other : model_->sweeps) total *= static_cast<double>(other.values.size());
+    if (total > static_cast<double>(options_.max_sweep_points)) {
+      diags_.Error(s.range, fmt::format("the sweep grid has {} points, over the limit of {} "
+                                        "(raise it with --max-points)",
+                                        units::FormatSig(total, 6), options_.max_sweep_points));
+      return;
+    }
+    model_->sweeps.push_back(std::move(d));
+  }
+
+  void TypeSolved(Quantity& q, bool* bad) {
+    const Stmt& s = *q.stmt;
+    Type ta, tb;
+    double a = 0, b = 0;
+    if (!LiteralValue(s.from, &ta, &a) || !LiteralValue(s.to, &tb, &b)) {
+      *bad = true;
+      return;
+    }
+    if (!(ta.dim == tb.dim) || !TempCompatible(ta.temp, tb.temp)) {
+      diags_.Error(s.to->range, fmt::format("the bracket's ends differ: {} and {}",
+                                            UnitWords(s.from), UnitWords(s.to)));
+      *bad = true;
+      return;
+    }
+    if (!(a < b) && !(b < a)) {
+      diags_.Error(s.to->range, "the bracket's two ends are equal");
+      *bad = true;
+      return;
+    }
+    q.type = ta;
+    if (q.type.temp == TempKind::kEither) q.type.temp = tb.temp;
+    const units::Unit& u = LiteralUnit(s.from->kind == ExprKind::kNeg ? s.from->args[0] : s.from);
+    q.display = u.text.empty() ? DefaultDisplay(q.type) : u;
+    q.display_explicit = !u.text.empty();
+    for (SolveDef& d : model_->solves) {
+      if (d.stmt == &s) {
+        d.lo = std::min(a, b);
+        d.hi = std::max(a, b);
+      }
+    }
+  }
+
+  void TypeSolveCondition(SolveDef& d) {
+    bool bad = false;
+    const Type l = TypeOf(d.lhs, &bad);
+    const Type r = TypeOf(d.rhs, &bad);
+    if (bad) return;
+    if (l.boolean || r.boolean) {
+      BoolMisuse(l.boolean ? d.lhs : d.rhs, &bad);
+      return;
+    }
+    if (!(l.dim == r.dim)) {
+      diags_.Error(d.stmt->range, fmt::format("the condition compares {} with {}", UnitWords(d.lhs),
+                                              UnitWords(d.rhs)));
+      return;
+    }
+    if (!TempCompatible(l.temp, r.temp)) {
+      diags_.Error(d.stmt->range, fmt::format("the condition compares {} with {}", TempWord(l.temp),
+                                              TempWord(r.temp)));
+      return;
+    }
+    // The condition must depend on the unknown, or no bracket can help.
+    std::vector<bool> seen(model_->quantities.size(), false);
+    std::vector<int> stack(d.deps.begin(), d.deps.end());
+    bool reaches = false;
+    while (!stack.empty() && !reaches) {
+      const int v = stack.back();
+      stack.pop_back();
+      if (seen[static_cast<size_t>(v)]) continue;
+      seen[static_cast<size_t>(v)] = true;
+      if (v == d.unknown) reaches = true;
+      for (int w : model_->quantities[static_cast<size_t>(v)].deps) stack.push_back(w);
+    }
+    if (!reaches) {
+      diags_.Error(d.stmt->range,
+                   fmt::format("the condition does not depend on '{}', so solving for it cannot "
+                               "change it",
+                               model_->quantities[static_cast<size_t>(d.unknown)].name));
+      return;
+    }
+    d.residual_unit = DefaultDisplay(l);
+    if (d.lhs->kind == ExprKind::kName) {
+      const int q = model_->info.at(d.lhs).quantity;
+      if (q >= 0) d.residual_unit = model_->quantities[static_cast<size_t>(q)].display;
+    }
+    d.ok = true;
+  }
+
+  void CollectProfile(const Stmt& s, const std::string& prefix) {
+    ProfileDef p;
+    p.stmt = &s;
+    p.counterflow = s.name == "counter";
+    p.caption = s.attrs.description;
+    int* slots[4] = {&p.hot_in, &p.hot_out, &p.cold_in, &p.cold_out};
+    for (size_t i = 0; i < 4; ++i) {
+      const Expr* e = s.streams[i];
+      const int qi = model_->Find(prefix + std::string(e->text));
+      if (qi < 0) {
+        diags_.Error(e->range, fmt::format("unknown name '{}'", e->text));
+        return;
+      }
+      const Quantity& q = model_->quantities[static_cast<size_t>(qi)];
+      if (bad_[static_cast<size_t>(qi)]) return;
+      if (!q.type.dim.IsTemperature() || q.type.temp == TempKind::kInterval) {
+        diags_.Error(e->range,
+                     fmt::format("'{}' must be an absolute temperature for a profile", e->text));
+        return;
+      }
+      *slots[i] = qi;
+    }
+    p.section = CurrentSection();
+    model_->profiles.push_back(p);
+    AddItem(Section::Item::Kind::kProfile, static_cast<int>(model_->profiles.size()) - 1);
   }
 
   void AssignDisplay(Quantity& q, bool* bad) {
@@ -888,6 +1472,13 @@ class Builder {
   Diagnostics& diags_;
   std::unique_ptr<Model> model_;
   std::unordered_map<const Expr*, std::string> scope_of_;
+  std::string_view main_file_;
+  std::vector<std::string> use_stack_;
+  std::set<std::string> used_prefixes_;
+  std::vector<std::unique_ptr<std::string>> loaded_names_;
+  std::vector<const Stmt*> case_stmts_;
+  std::vector<const Stmt*> sweep_stmts_;
+  std::vector<std::pair<const Stmt*, std::string>> profile_stmts_;
   std::set<std::vector<int>> reported_cycles_;
   std::vector<bool> bad_;
 };

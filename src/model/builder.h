@@ -22,6 +22,7 @@ using FileLoader = std::function<bool(const std::string& from_file, const std::s
 struct BuildOptions {
   FileLoader load;  // null: `use` and `table` report that files cannot be read
   int max_use_depth = 16;
+  double max_sweep_points = 1e7;  // points in a sweep grid
 };
 
 // Resolves names, builds the dependency order, checks every dimension and

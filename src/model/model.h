@@ -43,6 +43,8 @@ struct Quantity {
   int section = -1;               // index into Model::sections, -1 before the first
   std::string prefix;             // template prefix, "" for the deck's own
   bool template_default = false;  // a template input left unbound
+  bool bound = false;             // a template input bound by `use … with` (kind kCalc)
+  SourceRange binding_range;      // where it is bound
   double given_si = 0.0;          // given: the literal in SI
 };
 
@@ -78,7 +80,9 @@ struct SolveDef {
   double lo = 0, hi = 0;  // SI bracket
   const Expr* lhs = nullptr;
   const Expr* rhs = nullptr;
-  std::vector<int> deps;  // quantities the condition reads
+  std::vector<int> deps;      // quantities the condition reads
+  units::Unit residual_unit;  // display unit of the condition's sides
+  bool ok = false;            // the condition type-checked
 };
 
 // `profile counter|parallel: hot T_h1 to T_h2, cold T_c1 to T_c2 ["caption"]`
@@ -89,6 +93,12 @@ struct ProfileDef {
   int hot_in = -1, hot_out = -1, cold_in = -1, cold_out = -1;  // quantity indices
   std::string caption;
   int section = -1;
+};
+
+struct UseDef {
+  const Stmt* stmt = nullptr;
+  std::string prefix;  // "hx" (nested: "hx.inner")
+  std::string path;    // resolved file
 };
 
 struct TableDef {
@@ -168,6 +178,7 @@ struct Model {
   std::vector<SweepDef> sweeps;
   std::vector<SolveDef> solves;
   std::vector<TableDef> tables;
+  std::vector<UseDef> uses;
   std::vector<ProfileDef> profiles;
   std::vector<int> order;  // quantity indices in dependency order
   std::unordered_map<const Expr*, ExprInfo> info;

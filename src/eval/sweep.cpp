@@ -1,0 +1,132 @@
+#include "eval/sweep.h"
+
+#include <algorithm>
+#include <atomic>
+#include <condition_variable>
+#include <limits>
+#include <mutex>
+#include <thread>
+
+namespace heatdeck {
+
+size_t SweepGridSize(const Model& model) {
+  if (model.sweeps.empty()) return 0;
+  size_t n = 1;
+  for (const SweepDef& s : model.sweeps) n *= s.values.size();
+  return n;
+}
+
+std::pair<size_t, size_t> ShardRange(size_t points, int k, int n) {
+  // floor(points * j / n) without overflow: points = q * n + r.
+  const auto nn = static_cast<size_t>(n);
+  const size_t q = points / nn, r = points % nn;
+  auto cut = [&](size_t j) { return q * j + r * j / nn; };
+  return {cut(static_cast<size_t>(k - 1)), cut(static_cast<size_t>(k))};
+}
+
+std::vector<int> DefaultSweepColumns(const Model& model) {
+  std::vector<int> cols;
+  for (const SweepDef& s : model.sweeps) cols.push_back(s.quantity);
+  for (size_t i = 0; i < model.quantities.size(); ++i) {
+    if (std::find(cols.begin(), cols.end(), static_cast<int>(i)) == cols.end()) {
+      cols.push_back(static_cast<int>(i));
+    }
+  }
+  return cols;
+}
+
+namespace {
+
+// Blocks are computed by any worker but emitted in order: a worker that
+// finishes block b waits until every block before b has been emitted.
+class Ordered {
+ public:
+  void WaitTurn(size_t block) {
+    std::unique_lock<std::mutex> lock(mu_);
+    cv_.wait(lock, [&] { return next_ == block; });
+  }
+  void Done() {
+    {
+      std::lock_guard<std::mutex> lock(mu_);
+      ++next_;
+    }
+    cv_.notify_all();
+  }
+
+ private:
+  std::mutex mu_;
+  std::condition_variable cv_;
+  size_t next_ = 0;
+};
+
+}  // namespace
+
+size_t RunSweep(const Model& model, const Plan& plan,
+                const std::vector<std::pair<int, double>>& base_overrides,
+                const SweepOptions& options, SweepSink& sink) {
+  const size_t total = SweepGridSize(model);
+  const auto [begin, end] = ShardRange(total, options.shard, options.shards);
+  if (begin >= end) return 0;
+  const size_t block = std::max<size_t>(1, options.block);
+  const size_t blocks = (end - begin + block - 1) / block;
+  const size_t ncol = options.columns.size();
+  const int jobs = static_cast<int>(std::max<size_t>(
+      1, std::min<size_t>(static_cast<size_t>(std::max(1, options.jobs)), blocks)));
+  std::vector<int> swept;
+  for (const SweepDef& s : model.sweeps) swept.push_back(s.quantity);
+
+  std::atomic<size_t> next_block{0};
+  std::atomic<size_t> failures{0};
+  Ordered order;
+
+  auto worker = [&] {
+    Evaluator ev(model, plan);
+    ev.LoadInputs(base_overrides);
+    CaseResult scratch;
+    ev.EvaluateCase(&scratch);
+    ev.PrepareSweep(swept);
+    double* frame = ev.frame();
+    std::vector<double> rows(block * ncol);
+    std::vector<std::string> errors(block);
+    std::vector<size_t> digit(model.sweeps.size());
+    for (;;) {
+      const size_t b = next_block.fetch_add(1);
+      if (b >= blocks) break;
+      const size_t first = begin + b * block;
+      const size_t last = std::min(end, first + block);
+      for (size_t p = first; p < last; ++p) {
+        // Mixed-radix digits of p: the first sweep line varies slowest.
+        size_t rest = p;
+        for (size_t s = model.sweeps.size(); s-- > 0;) {
+          const size_t n = model.sweeps[s].values.size();
+          digit[s] = rest % n;
+          rest /= n;
+        }
+        for (size_t s = 0; s < model.sweeps.size(); ++s) {
+          frame[static_cast<size_t>(model.sweeps[s].quantity)] = model.sweeps[s].values[digit[s]];
+        }
+        std::string& err = errors[p - first];
+        err.clear();
+        if (!ev.EvaluatePoint(&err)) failures.fetch_add(1);
+        double* row = rows.data() + (p - first) * ncol;
+        for (size_t c = 0; c < ncol; ++c) row[c] = frame[static_cast<size_t>(options.columns[c])];
+      }
+      order.WaitTurn(b);
+      for (size_t p = first; p < last; ++p) {
+        sink.Point(p, rows.data() + (p - first) * ncol, errors[p - first]);
+      }
+      order.Done();
+    }
+  };
+  if (jobs == 1) {
+    worker();
+  } else {
+    std::vector<std::thread> threads;
+    threads.reserve(static_cast<size_t>(jobs));
+    for (int j = 0; j < jobs; ++j) threads.emplace_back(worker);
+    for (auto& t : threads) t.join();
+  }
+  return failures.load();
+}
+
+}  // namespace heatdeck

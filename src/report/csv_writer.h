@@ -1,0 +1,29 @@
+// Sweep rows as CSV, streamed: one header row `name [unit]`, then one row a
+// point in display units, the last column the point's error ("" when it
+// evaluated).  Numbers are the shortest text that reads back exactly.
+#pragma once
+
+#include <cstdio>
+#include <string>
+#include <vector>
+
+namespace heatdeck {
+
+class CsvWriter {
+ public:
+  explicit CsvWriter(std::FILE* out) : out_(out) {}
+  void Header(const std::vector<std::string>& names, const std::vector<std::string>& units);
+  void Row(const double* values, size_t n, const std::string& error);
+  bool ok() const { return std::ferror(out_) == 0; }
+
+ private:
+  std::FILE* out_;
+  std::string line_;
+};
+
+// A text cell quoted by the usual CSV practice (RFC 4180), and kept from
+// being read as a formula by spreadsheets: a cell beginning with = + - @
+// gets a leading apostrophe (common practice).
+std::string CsvCell(const std::string& text);
+
+}  // namespace heatdeck
