@@ -112,8 +112,15 @@ bool Session::LoadText(const std::string& name, std::string text, const SessionO
         return false;
       }
     }
-    s_->results.files.push_back(InputFile{resolved, Sha256Hex(content)});
-    const std::string_view n = s_->files.Add(resolved, std::move(content));
+    // Files inside the deck's folder are named relative to it, so that
+    // reports do not depend on where the project is checked out.
+    std::string shown = resolved;
+    if (!s_->deck_dir.empty() && resolved.rfind(s_->deck_dir + "/", 0) == 0) {
+      const fs::path deck_parent = fs::path(s_->deck_name).parent_path();
+      shown = (deck_parent / resolved.substr(s_->deck_dir.size() + 1)).string();
+    }
+    s_->results.files.push_back(InputFile{shown, Sha256Hex(content)});
+    const std::string_view n = s_->files.Add(shown, std::move(content));
     *loaded_name = std::string(n);
     *loaded_text = s_->files.Text(n);
     return true;

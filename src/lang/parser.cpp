@@ -199,6 +199,8 @@ class Parser {
       ok = ParseTable(s);
     else if (word == "prefer")
       ok = ParsePrefer(s);
+    else if (word == "profile")
+      ok = ParseProfile(s);
     else
       ok = ParseCalc(s);
     if (ok) deck_.stmts.push_back(std::move(s));
