@@ -217,7 +217,7 @@ QuantityMessage Program::Explain(int quantity) const {
     if (it->quantity == quantity && it->message.kind == QuantityMessage::Kind::kError) {
       QuantityMessage m = it->message;
       m.text = fmt::format("cannot evaluate '{}': {}", q.name, m.text);
-      m.range = q.expr != nullptr ? q.expr->range : q.range;
+      if (!m.range.valid()) m.range = q.expr != nullptr ? q.expr->range : q.range;
       return m;
     }
   }

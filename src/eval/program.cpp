@@ -31,6 +31,7 @@ std::string Num(double v) {
 struct Program::CallSite : library::Sink {
   const library::FunctionInfo* fn = nullptr;
   int quantity = -1;
+  SourceRange range;  // the call in the deck
   Program* program = nullptr;
 
   void Warning(std::string message) override {
@@ -40,7 +41,8 @@ struct Program::CallSite : library::Sink {
   void Error(std::string message) override {
     program->library_error_ = true;
     program->recorded_.push_back(
-        Recorded{quantity, QuantityMessage{QuantityMessage::Kind::kError, std::move(message), {}}});
+        Recorded{quantity, QuantityMessage{QuantityMessage::Kind::kError,
+                                           fmt::format("{}: {}", fn->name, message), range}});
   }
   void Note(const char* static_text) override {
     program->recorded_.push_back(
@@ -58,6 +60,7 @@ struct Program::TableSite {
   const TableDef* table = nullptr;
   int column = 0;
   int quantity = -1;
+  SourceRange range;  // the call in the deck
   Program* program = nullptr;
 
   static double Trampoline(void* data, double x) {
@@ -78,7 +81,7 @@ struct Program::TableSite {
                         cols[0].name, units::FormatSig(u.FromSi(x), 6), u.text,
                         units::FormatSig(u.FromSi(arg.front()), 6),
                         units::FormatSig(u.FromSi(arg.back()), 6), u.text),
-            {}}});
+            site->range}});
     return kNaN;
   }
 };
@@ -176,6 +179,7 @@ class Translator {
       auto site = std::make_unique<Program::TableSite>();
       site->table = &m_.tables[static_cast<size_t>(info.table)];
       site->column = info.column;
+      site->range = e->range;
       site->quantity = quantity_;
       site->program = program_;
       const std::string name = fmt::format("t{}", table_sites_->size());
@@ -187,6 +191,7 @@ class Translator {
     // as user data, so warnings land on the right quantity.
     auto site = std::make_unique<Program::CallSite>();
     site->fn = info.fn;
+    site->range = e->range;
     site->quantity = quantity_;
     site->program = program_;
     const std::string name = fmt::format("f{}", sites_->size());
@@ -349,7 +354,13 @@ void Program::RunAll(CaseResult* out) {
     }
   }
   for (auto& r : recorded_) {
-    if (r.quantity >= 0) out->messages[static_cast<size_t>(r.quantity)].push_back(r.message);
+    if (r.quantity < 0) continue;
+    QuantityMessage m = std::move(r.message);
+    if (m.kind == QuantityMessage::Kind::kError) {
+      m.text = fmt::format("cannot evaluate '{}': {}",
+                           model_.quantities[static_cast<size_t>(r.quantity)].name, m.text);
+    }
+    out->messages[static_cast<size_t>(r.quantity)].push_back(std::move(m));
   }
   recorded_.clear();
 }
