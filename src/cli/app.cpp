@@ -78,6 +78,16 @@ int Main(const std::vector<std::string>& args, Streams io) {
   auto* functions = app.add_subcommand("functions", "List library functions, or show one");
   functions->add_option("name", fname, "A function name");
 
+  std::string rev, diff_format = "text";
+  auto* diff = app.add_subcommand("diff", "Show what changed between two revisions of a deck");
+  diff->add_option("decks", decks, "OLD.deck NEW.deck, or one deck with --rev")->required();
+  diff->add_option("--rev", rev, "Compare DECK with its version at this git revision");
+  diff->add_option("-f,--format", diff_format, "text, md or json (default: text)");
+  diff->add_option("--case", g.session.only_case, "Compare only this case (base or a case name)");
+  diff->add_option("--allow-path", g.session.allow_paths,
+                   "A further folder that use and table may read");
+  diff->add_option("--stdlib", g.session.stdlib_dir, "Folder of templates (default: built in)");
+
   std::vector<const char*> argv;
   for (const auto& a : args) argv.push_back(a.c_str());
   try {
@@ -101,6 +111,7 @@ int Main(const std::vector<std::string>& args, Streams io) {
   if (*run) return RunRun(decks, out_dir, formats, g, io);
   if (*units) return RunUnits(filter, io);
   if (*functions) return RunFunctions(fname, io);
+  if (*diff) return RunDiff(decks, rev, diff_format, g, io);
   return kUsage;
 }
 

@@ -29,5 +29,8 @@ int RunRun(const std::vector<std::string>& decks, const std::string& out_dir,
            const std::vector<std::string>& formats, const GlobalOptions& g, Streams io);
 int RunUnits(const std::string& filter, Streams io);
 int RunFunctions(const std::string& name, Streams io);
+// decks: OLD NEW, or one deck with rev (the old version read through git).
+int RunDiff(const std::vector<std::string>& decks, const std::string& rev,
+            const std::string& format, const GlobalOptions& g, Streams io);
 
 }  // namespace heatdeck::cli
