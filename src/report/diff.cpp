@@ -68,10 +68,13 @@ bool CompareValues(const Quantity& oq, const Quantity& nq, QuantityChange* ch) {
   DiffValue& n = ch->new_value;
   ch->dimension_changed = !(oq.type.dim == nq.type.dim);
   if (!ch->dimension_changed && oq.type.temp == nq.type.temp) o.display = n.display;
+  // A calculated value replaced by a given (or the reverse) matters to a
+  // checker even when the number stayed.
+  const bool kind_changed = oq.kind != nq.kind;
   if (ch->dimension_changed) return true;
   if (o.evaluated != n.evaluated) return true;
-  if (!o.evaluated) return false;
-  if (SameValue(o.si, n.si)) return false;
+  if (!o.evaluated) return kind_changed;
+  if (SameValue(o.si, n.si)) return kind_changed;
   if (o.si != 0.0 && std::isfinite(o.si) && std::isfinite(n.si)) {
     ch->has_percent = true;
     ch->percent = 100.0 * (n.si - o.si) / std::fabs(o.si);
@@ -268,10 +271,10 @@ int DigitsToTell(const QuantityChange& ch) {
   if (!o.evaluated || !n.evaluated || o.display.text != n.display.text) return kMinDigits;
   const double a = o.display.FromSi(o.si);
   const double b = n.display.FromSi(n.si);
-  for (int digits = kMinDigits; digits < 17; ++digits) {
+  for (int digits = kMinDigits; digits <= 17; ++digits) {
     if (units::FormatSig(a, digits) != units::FormatSig(b, digits)) return digits;
   }
-  return 17;
+  return kMinDigits;  // the same number (a change of kind alone)
 }
 
 // A value as shown: "35 degC"; "not evaluated" when it failed.

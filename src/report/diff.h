@@ -91,8 +91,9 @@ struct DiffResult {
 // template prefix and expression text (the k-th occurrence of a text in the
 // old deck with the k-th in the new), meta fields by key and occurrence.
 // A value counts as changed when |new − old| > 1e-12·max(|old|, |new|) in
-// SI, when it was evaluated on one side only, or when its dimension
-// changed; values that failed on both sides are equal.  Order: the new
+// SI, when it was evaluated on one side only, when its dimension changed,
+// or when its kind did (a calculation replaced by a given of the same
+// value); values that failed on both sides are equal.  Order: the new
 // deck's order, then what was removed in the old deck's order.
 // Both Results must come from a successful Load (model set); cases missing
 // from a Results are simply not compared.
