@@ -65,7 +65,8 @@ size_t RunSweep(const Model& model, const Plan& plan,
                 const std::vector<std::pair<int, double>>& base_overrides,
                 const SweepOptions& options, SweepSink& sink) {
   const size_t total = SweepGridSize(model);
-  const auto [begin, end] = ShardRange(total, options.shard, options.shards);
+  const std::pair<size_t, size_t> range = ShardRange(total, options.shard, options.shards);
+  const size_t begin = range.first, end = range.second;
   if (begin >= end) return 0;
   const size_t block = std::max<size_t>(1, options.block);
   const size_t blocks = (end - begin + block - 1) / block;
