@@ -78,6 +78,16 @@ int Main(const std::vector<std::string>& args, Streams io) {
   auto* functions = app.add_subcommand("functions", "List library functions, or show one");
   functions->add_option("name", fname, "A function name");
 
+  auto* templates = app.add_subcommand("templates", "List the template library");
+  templates->add_option("--stdlib", g.session.stdlib_dir,
+                        "Folder of templates (default: built in)");
+  std::string template_name, new_file;
+  auto* new_deck = app.add_subcommand("new", "Start a deck from a template");
+  new_deck->add_option("template", template_name, "A template name")->required();
+  new_deck->add_option("file", new_file,
+                       "Deck to write (default: standard output); never overwritten");
+  new_deck->add_option("--stdlib", g.session.stdlib_dir, "Folder of templates (default: built in)");
+
   std::string rev, diff_format = "text";
   auto* diff = app.add_subcommand("diff", "Show what changed between two revisions of a deck");
   diff->add_option("decks", decks, "OLD.deck NEW.deck, or one deck with --rev")->required();
@@ -111,6 +121,8 @@ int Main(const std::vector<std::string>& args, Streams io) {
   if (*run) return RunRun(decks, out_dir, formats, g, io);
   if (*units) return RunUnits(filter, io);
   if (*functions) return RunFunctions(fname, io);
+  if (*templates) return RunTemplates(g.session.stdlib_dir, io);
+  if (*new_deck) return RunNew(template_name, new_file, g.session.stdlib_dir, io);
   if (*diff) return RunDiff(decks, rev, diff_format, g, io);
   return kUsage;
 }

@@ -32,5 +32,11 @@ int RunFunctions(const std::string& name, Streams io);
 // decks: OLD NEW, or one deck with rev (the old version read through git).
 int RunDiff(const std::vector<std::string>& decks, const std::string& rev,
             const std::string& format, const GlobalOptions& g, Streams io);
+// The template library (stdlib_dir, or the built-in one when empty).
+int RunTemplates(const std::string& stdlib_dir, Streams io);
+// Writes a deck using template `name` to `file` (standard output when empty);
+// never overwrites an existing file.
+int RunNew(const std::string& name, const std::string& file, const std::string& stdlib_dir,
+           Streams io);
 
 }  // namespace heatdeck::cli
