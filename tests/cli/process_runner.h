@@ -1,0 +1,40 @@
+// Runs the real heatdeck executable as a child process, the way a user or a
+// CI script does, and captures what it printed and how it exited.
+#pragma once
+
+#include <string>
+#include <vector>
+
+namespace heatdeck::testing {
+
+struct ProcessResult {
+  // The exit status; 128 + the signal number when the process was killed
+  // by a signal (a crash shows as 134 or 139, never as 0..3).
+  int status = -1;
+  bool signalled = false;
+  std::string out;  // standard output, bytes as written
+  std::string err;  // standard error
+};
+
+// Runs HD_BINARY with args (without the program name) in the folder cwd, with
+// NO_COLOR set and standard input closed.  Output goes to temporary files,
+// so a child that writes megabytes cannot block on a full pipe.
+ProcessResult RunHeatdeck(const std::vector<std::string>& args, const std::string& cwd);
+
+// A fresh empty folder under the system's temporary folder; removed, with
+// what is in it, when the object goes.
+class TempDir {
+ public:
+  TempDir();
+  ~TempDir();
+  TempDir(const TempDir&) = delete;
+  TempDir& operator=(const TempDir&) = delete;
+  const std::string& path() const { return path_; }
+  // The names of the entries in the folder, sorted (empty when none).
+  std::vector<std::string> Entries() const;
+
+ private:
+  std::string path_;
+};
+
+}  // namespace heatdeck::testing
