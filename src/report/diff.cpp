@@ -305,19 +305,26 @@ std::string KindName(const QuantityChange& ch) {
 
 // ---- Text ------------------------------------------------------------------
 
+// Characters, not bytes, so that "°C" in an expression keeps columns
+// aligned: UTF-8 continuation bytes do not count.
+size_t Width(const std::string& s) {
+  return static_cast<size_t>(std::count_if(
+      s.begin(), s.end(), [](char c) { return (static_cast<unsigned char>(c) & 0xC0) != 0x80; }));
+}
+
 // Rows of cells printed as aligned columns, two spaces apart, under an
 // indent; trailing blanks trimmed.
 void Table(const std::vector<std::vector<std::string>>& rows, std::string* out) {
   if (rows.empty()) return;
   std::vector<size_t> widths(rows[0].size(), 0);
   for (const auto& r : rows) {
-    for (size_t c = 0; c < r.size(); ++c) widths[c] = std::max(widths[c], r[c].size());
+    for (size_t c = 0; c < r.size(); ++c) widths[c] = std::max(widths[c], Width(r[c]));
   }
   for (const auto& r : rows) {
     std::string line = "    ";
     for (size_t c = 0; c < r.size(); ++c) {
       line += r[c];
-      if (c + 1 < r.size()) line += std::string(widths[c] - r[c].size() + 2, ' ');
+      if (c + 1 < r.size()) line += std::string(widths[c] - Width(r[c]) + 2, ' ');
     }
     while (!line.empty() && line.back() == ' ') line.pop_back();
     *out += line + "\n";

@@ -347,6 +347,16 @@ TEST(DiffWriters, Text) {
             "old: old.deck\nnew: new.deck\nno differences\n");
 }
 
+TEST(DiffWriters, TextColumnsCountCharactersNotBytes) {
+  // "°C" is two bytes and one character; the columns after it stay aligned.
+  const DiffResult d = CompareTexts("given T = 40 °C\ncheck T <= 45 °C\n",
+                                    "given T = 50 °C\ncheck T <= 45 °C\ncheck T > 1 K\n");
+  EXPECT_NE(WriteDiffText(d).find("    T <= 45 °C  pass         ->  fail\n"
+                                  "    T > 1 K     (new check)  ->  pass\n"),
+            std::string::npos)
+      << WriteDiffText(d);
+}
+
 TEST(DiffWriters, Markdown) {
   const DiffResult d = CompareTexts(kSmallOld, kSmallNew);
   EXPECT_EQ(WriteDiffMarkdown(d),
