@@ -75,6 +75,7 @@ table { border-collapse: collapse; width: 100%; margin: 1mm 0 3mm; }
 th, td { text-align: left; vertical-align: top; padding: 1.2mm 2mm; border-bottom: 0.5pt solid var(--rule); }
 th { font-size: 8pt; font-weight: 700; color: var(--muted); background: var(--faint); border-bottom: 0.8pt solid var(--ink); }
 tr { break-inside: avoid; }
+table[data-keep] { break-inside: avoid; }
 td.num, th.num { text-align: right; white-space: nowrap; }
 td.unit { white-space: nowrap; }
 td.src, .small { font-size: 8.5pt; color: var(--muted); }
@@ -118,6 +119,8 @@ tr.failed td:first-child { box-shadow: inset 2.5pt 0 0 var(--fail); }
   break-inside: avoid;
 }
 .eq .ref { position: absolute; top: 2mm; right: 0; }
+.eq.long .eq-lines { font-size: 0.86em; }
+.eq.very-long .eq-lines { font-size: 0.72em; }
 .eq-head { display: flex; gap: 3mm; align-items: baseline; margin-bottom: 1mm; }
 .eq-head .desc { font-weight: 600; }
 .eq-head .ref, .eq .ref { margin-left: auto; font-size: 7.5pt; color: var(--muted); white-space: nowrap; }
@@ -164,6 +167,10 @@ td.changed { background: var(--warn-bg); font-weight: 700; }
   .report { box-shadow: 0 0 3mm rgba(0, 0, 0, 0.12); margin-bottom: 10mm; }
 }
 )css";
+
+// Tables up to this many rows are kept on one printed page rather than
+// leaving a row or two alone on the next.
+constexpr size_t kKeepWholeRows = 14;
 
 xml_node Add(xml_node parent, const char* tag, const char* cls = nullptr) {
   xml_node n = parent.append_child(tag);
@@ -350,6 +357,16 @@ class MathWriter {
  private:
   static void Op(xml_node row, const char* text) { AddText(row, "mo", text); }
 
+  // Fences stretch to the height of the row they are in: each pair gets a
+  // row of its own, so that it grows with what it encloses and not with a
+  // fraction beside it.
+  void Parens(xml_node row, const heatdeck::Expr& c) {
+    xml_node group = Add(row, "mrow");
+    Op(group, "(");
+    Node(Add(group, "mrow"), c);
+    Op(group, ")");
+  }
+
   // Whether a child needs parentheses under a parent of precedence p.
   static bool NeedsParens(const heatdeck::Expr& c, int p, bool strict) {
     const int pc = Precedence(c.kind);
@@ -358,18 +375,14 @@ class MathWriter {
 
   void Child(xml_node row, const heatdeck::Expr& c, int p, bool strict, bool right) {
     if (NeedsParens(c, p, strict)) {
-      Op(row, "(");
-      Node(Add(row, "mrow"), c);
-      Op(row, ")");
+      Parens(row, c);
       return;
     }
     // A substituted value with a unit or a sign is one factor: parenthesise
     // it under a product, a power or a sign, and a negative one also as a
     // right operand.
     if (c_ != nullptr && c.kind == ExprKind::kName && ValueNeedsGroup(c, p, right)) {
-      Op(row, "(");
-      Node(Add(row, "mrow"), c);
-      Op(row, ")");
+      Parens(row, c);
       return;
     }
     Node(row, c);
@@ -430,8 +443,13 @@ class MathWriter {
   void Name(xml_node row, const heatdeck::Expr& e) {
     auto it = m_.info.find(&e);
     const int q = it == m_.info.end() ? -1 : it->second.quantity;
-    if (c_ == nullptr || q < 0) {
+    if (q < 0) {
       Sym(row, e.text);  // constants keep their symbol when substituted
+      return;
+    }
+    if (c_ == nullptr) {
+      // The full name: a template's "Q" is shown as "hx.Q", as in its tables.
+      Sym(row, m_.quantities[static_cast<size_t>(q)].name);
       return;
     }
     const std::string v = QuantityValueText(m_, *c_, q);
@@ -445,14 +463,16 @@ class MathWriter {
       return;
     }
     if (name == "abs" && e.args.size() == 1) {
-      Op(row, "|");
-      Node(Add(row, "mrow"), *e.args[0]);
-      Op(row, "|");
+      xml_node group = Add(row, "mrow");
+      Op(group, "|");
+      Node(Add(group, "mrow"), *e.args[0]);
+      Op(group, "|");
       return;
     }
     xml_node fn = AddText(row, "mi", std::string(name));
     fn.append_attribute("mathvariant") = "normal";
     Op(row, "\u2061");  // function application
+    row = Add(row, "mrow");
     Op(row, "(");
     xml_node args = Add(row, "mrow");
     for (size_t i = 0; i < e.args.size(); ++i) {
@@ -698,7 +718,7 @@ class HtmlReport {
             (&c == &Base() ? fmt::format("#check-{}", i + 1) : std::string("#cases")).c_str();
         Text(a, fmt::format("C{}", i + 1));
         if (many) Text(li, fmt::format(" (case {})", c.name));
-        Text(li, ": " + (m_.checks[i].description.empty() ? SymbolicText(*m_.checks[i].expr)
+        Text(li, ": " + (m_.checks[i].description.empty() ? SymbolicText(m_, *m_.checks[i].expr)
                                                           : m_.checks[i].description));
       }
     }
@@ -753,6 +773,13 @@ class HtmlReport {
     if (HasSweepRows()) item("#sweeps", "Parameter study");
     item("#appendix", "Appendix: inputs, units, methods, warnings");
     Newline(main);
+  }
+
+  // Where a statement is: "deck line 12", or "template hx, line 12" for a
+  // template's (prefix "hx.").
+  static std::string LineRef(const std::string& prefix, int line) {
+    if (prefix.empty()) return fmt::format("deck line {}", line);
+    return fmt::format("template {}, line {}", prefix.substr(0, prefix.size() - 1), line);
   }
 
   std::string SectionId(size_t i) const { return fmt::format("#sec-{}", i + 1); }
@@ -828,6 +855,7 @@ class HtmlReport {
     if (givens.empty()) return;
     AddText(s, "h3", "Inputs");
     xml_node t = Add(s, "table", "inputs");
+    if (givens.size() <= kKeepWholeRows) t.append_attribute("data-keep") = "whole";
     xml_node hr = Add(Add(t, "thead"), "tr");
     AddText(hr, "th", "Symbol");
     AddText(hr, "th", "Description");
@@ -892,10 +920,17 @@ class HtmlReport {
   void Equation(xml_node s, int q) {
     const Quantity& qq = m_.quantities[static_cast<size_t>(q)];
     const CaseResult& c = Base();
-    xml_node eq = Add(s, "div", "eq");
+    // MathML does not wrap lines: long equations are set smaller so that
+    // they still fit the printed width (about 100 characters of text at the
+    // normal size).
+    size_t length = 0;
+    if (qq.expr != nullptr) {
+      length = std::max(SymbolicText(m_, *qq.expr).size(), SubstitutedText(m_, c, *qq.expr).size());
+    }
+    xml_node eq = Add(s, "div", length > 150 ? "eq very-long" : length > 100 ? "eq long" : "eq");
     eq.append_attribute("id") = ("q-" + qq.name).c_str();
     eq.append_attribute("data-name") = qq.name.c_str();
-    AddText(eq, "span", fmt::format("deck line {}", qq.range.line), "ref");
+    AddText(eq, "span", LineRef(qq.prefix, qq.range.line), "ref");
     if (!qq.description.empty()) AddText(Add(eq, "div", "eq-head"), "span", qq.description, "desc");
 
     xml_node lines = Add(eq, "div", "eq-lines");
@@ -927,6 +962,7 @@ class HtmlReport {
     const CaseResult& c = Base();
     AddText(s, "h3", "Acceptance checks");
     xml_node t = Add(s, "table", "checks");
+    if (checks.size() <= kKeepWholeRows) t.append_attribute("data-keep") = "whole";
     xml_node hr = Add(Add(t, "thead"), "tr");
     AddText(hr, "th", "No.");
     AddText(hr, "th", "Criterion");
@@ -979,8 +1015,7 @@ class HtmlReport {
     Text(head, "Solve for ");
     AppendSymbol(head, q.name);
     if (!q.description.empty()) AddText(head, "span", q.description, "desc");
-    if (d.stmt != nullptr)
-      AddText(head, "span", fmt::format("deck line {}", d.stmt->range.line), "ref");
+    if (d.stmt != nullptr) AddText(head, "span", LineRef(q.prefix, d.stmt->range.line), "ref");
     xml_node cond = Add(box, "div", "eq-lines");
     AddText(cond, "span", "so that", "small");
     Add(cond, "span");
@@ -1060,10 +1095,6 @@ class HtmlReport {
     plot.fix_x = true;
     plot.description = caption;
     PlotSeries hot, cold;
-    hot.label =
-        fmt::format("Hot stream, {} → {}", PlotSymbol(name(d.hot_in)), PlotSymbol(name(d.hot_out)));
-    cold.label = fmt::format("Cold stream, {} → {}", PlotSymbol(name(d.cold_in)),
-                             PlotSymbol(name(d.cold_out)));
     hot.tone = 0;
     cold.tone = 1;
     hot.direction = 1;
@@ -1071,17 +1102,15 @@ class HtmlReport {
     hot.x = cold.x = pr->x;
     for (double t : pr->hot_si) hot.y.push_back(u.FromSi(t));
     for (double t : pr->cold_si) cold.y.push_back(u.FromSi(t));
-    // End temperatures labelled where each stream enters and leaves.
-    auto note = [&](const PlotSeries& ps, bool at_start, bool below) {
-      if (ps.y.empty()) return;
-      const size_t i = at_start ? 0 : ps.y.size() - 1;
-      plot.notes.push_back(
-          {ps.x[i], ps.y[i], WithUnit(FormatResult(ps.y[i]), u.text, " "), !at_start, below});
+    // The end temperatures go in the legend, where they cannot collide with
+    // the lines: "Hot stream: T_h1 80.00 °C → T_h2 42.26 °C".
+    auto end = [&](int q) {
+      return PlotSymbol(name(q)) + " " +
+             WithUnit(QuantityValueText(m_, Base(), q),
+                      m_.quantities[static_cast<size_t>(q)].display.text);
     };
-    note(hot, true, false);
-    note(hot, false, false);
-    note(cold, true, true);
-    note(cold, false, true);
+    hot.label = "Hot stream: " + end(d.hot_in) + " → " + end(d.hot_out);
+    cold.label = "Cold stream: " + end(d.cold_in) + " → " + end(d.cold_out);
     plot.series = {hot, cold};
     AppendLinePlot(plot, fig);
     AddText(fig, "figcaption", caption + ". Arrows show the direction of flow.");
@@ -1144,7 +1173,7 @@ class HtmlReport {
         xml_node name = Add(tr, "td");
         Text(name, fmt::format("C{} ", i + 1));
         AddText(name, "span",
-                m_.checks[i].description.empty() ? SymbolicText(*m_.checks[i].expr)
+                m_.checks[i].description.empty() ? SymbolicText(m_, *m_.checks[i].expr)
                                                  : m_.checks[i].description,
                 "small");
         Add(tr, "td");
@@ -1281,14 +1310,18 @@ class HtmlReport {
     xml_node plots = Add(block, "div", "plots");
     for (size_t k : varying) {
       const Quantity& yq = m_.quantities[static_cast<size_t>(s.columns[k])];
+      // Two plots share a printed line: a narrower drawing keeps its text
+      // legible at that size.
       LinePlot plot;
+      plot.width = 380;
+      plot.height = 250;
       plot.x_label = PlotAxisLabel(xq.name, xq.display.text);
       plot.y_label = PlotAxisLabel(yq.name, yq.display.text);
       plot.description = fmt::format("{} against {}", yq.name, xq.name);
       for (const std::string& key : keys_in_order) {
         PlotSeries ps;
         ps.markers = true;
-        ps.label = key.empty() ? PlotSymbol(yq.name) : key;
+        ps.label = key;  // one line needs no legend
         for (size_t p = 0; p < s.rows.size(); ++p) {
           if (line_keys[p] != key) continue;
           ps.x.push_back(xq.display.FromSi(swept_values[0][p]));

@@ -191,7 +191,7 @@ class MarkdownReport {
 
   std::string CheckLabel(size_t i) const {
     const CheckDef& d = m_.checks[i];
-    return d.description.empty() ? Code(SymbolicText(*d.expr)) : Esc(d.description);
+    return d.description.empty() ? Code(SymbolicText(m_, *d.expr)) : Esc(d.description);
   }
 
   void SignOff() {
@@ -321,7 +321,7 @@ class MarkdownReport {
   void CalcRow(int q) {
     const Quantity& qq = m_.quantities[static_cast<size_t>(q)];
     const std::string v = QuantityValueText(m_, Base(), q);
-    out_ += Row({Code(qq.name), qq.expr != nullptr ? Code(SymbolicText(*qq.expr)) : "",
+    out_ += Row({Code(qq.name), qq.expr != nullptr ? Code(SymbolicText(m_, *qq.expr)) : "",
                  qq.expr != nullptr ? Code(SubstitutedText(m_, Base(), *qq.expr)) : "",
                  v.empty() ? "**not evaluated**" : "**" + v + "**", PrettyUnit(qq.display.text),
                  Esc(qq.description), Notes(q, qq.expr)});
@@ -335,7 +335,7 @@ class MarkdownReport {
                                : empty;
     const CheckSides s = SidesOf(d, r);
     const Verdict v = CheckVerdict(r);
-    out_ += Row({fmt::format("C{}", i + 1), Code(SymbolicText(*d.expr)),
+    out_ += Row({fmt::format("C{}", i + 1), Code(SymbolicText(m_, *d.expr)),
                  s.shown ? WithUnit(s.lhs, s.unit) + " " + ComparisonSign(d.expr->kind) + " " +
                                WithUnit(s.rhs, s.unit)
                          : "—",
@@ -348,7 +348,7 @@ class MarkdownReport {
     const Quantity& q = m_.quantities[static_cast<size_t>(d.unknown)];
     out_ += "**Solve for " + Code(q.name) + "**";
     if (d.lhs != nullptr && d.rhs != nullptr)
-      out_ += " so that " + Code(SymbolicText(*d.lhs) + " = " + SymbolicText(*d.rhs));
+      out_ += " so that " + Code(SymbolicText(m_, *d.lhs) + " = " + SymbolicText(m_, *d.rhs));
     out_ += !q.description.empty() ? " — " + Esc(q.description) + "\n\n" : "\n\n";
     const std::string residual_unit =
         d.lhs != nullptr ? m_.Info(d.lhs).type.dim.SiUnit() : std::string();

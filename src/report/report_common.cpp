@@ -350,10 +350,13 @@ std::vector<const QuantityMessage*> MessagesOf(const CaseResult& c, int q,
 
 // ---- Expressions as text -----------------------------------------------------
 
-std::string SymbolicText(const Expr& e) {
-  return Pretty(e, [](const Expr& n) -> std::string {
+std::string SymbolicText(const Model& m, const Expr& e) {
+  return Pretty(e, [&](const Expr& n) -> std::string {
     if (n.kind == ExprKind::kNumber) return WithUnit(n.text, n.unit);
-    return "";
+    if (n.kind != ExprKind::kName) return "";
+    auto it = m.info.find(&n);
+    if (it == m.info.end() || it->second.quantity < 0) return "";
+    return m.quantities[static_cast<size_t>(it->second.quantity)].name;
   });
 }
 
@@ -506,7 +509,7 @@ std::string MetaValue(const Results& r, std::string_view key) {
   return v;
 }
 
-bool SectionShown(const Section& s) { return !s.items.empty() || !s.title.empty(); }
+bool SectionShown(const Section& s) { return !s.items.empty(); }
 
 std::vector<int> SectionNumbers(const Model& m) {
   std::vector<int> out;
@@ -589,22 +592,6 @@ std::vector<UnitUse> UnitsUsed(const Model& m) {
 
 // ---- Profiles ----------------------------------------------------------------
 
-namespace {
-
-template <typename C>
-const std::vector<ProfileResult>& ProfilesIn(const C& c) {
-  // The evaluator records profiles per case once the `profile` statement is
-  // evaluated; until CaseResult carries them there is nothing to draw.
-  if constexpr (requires { c.profiles; }) {
-    return c.profiles;
-  } else {
-    static const std::vector<ProfileResult> kNone;
-    return kNone;
-  }
-}
-
-}  // namespace
-
-const std::vector<ProfileResult>& ProfilesOf(const CaseResult& c) { return ProfilesIn(c); }
+const std::vector<ProfileResult>& ProfilesOf(const CaseResult& c) { return c.profiles; }
 
 }  // namespace heatdeck::report

@@ -92,8 +92,10 @@ std::vector<const QuantityMessage*> MessagesOf(const CaseResult& c, int q,
 
 // ---- Expressions as text -----------------------------------------------------
 
-// The expression as the deck writes it (units printed with PrettyUnit).
-std::string SymbolicText(const Expr& e);
+// The expression as the deck writes it, units printed with PrettyUnit and
+// each quantity by its full name (a template's "Q" as "hx.Q"), so that every
+// name in a report can be looked up in it.
+std::string SymbolicText(const Model& m, const Expr& e);
 // The same expression with every quantity replaced by its value and display
 // unit in case c ("0.7521 * (2095 W/K) * (80 °C - 20 °C)").  Under a product,
 // quotient, power or sign, a value whose unit has an operator in it is put in
@@ -151,8 +153,8 @@ std::string MetaValue(const Results& r, std::string_view key);
 
 // ---- Sections -------------------------------------------------------------------
 
-// A section is printed when it holds something or has a title (the implicit
-// section before the first `section` is usually empty).
+// A section is printed when it holds something: the implicit section before
+// the first `section` and a template's continuation headings are often empty.
 bool SectionShown(const Section& s);
 // The printed number of each section (1, 2, …, in order, counting printed
 // sections only); 0 for a section that is not printed.  Indexed like

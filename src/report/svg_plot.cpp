@@ -159,7 +159,9 @@ void AppendLinePlot(const LinePlot& plot, pugi::xml_node parent) {
     legend.push_back({lx, ly});
     lx += w + 14;
   }
-  const double legend_h = plot.series.empty() ? 0 : ly + kLegendRow + 4;
+  bool any_label = false;
+  for (const PlotSeries& s : plot.series) any_label = any_label || !s.label.empty();
+  const double legend_h = any_label ? ly + kLegendRow + 4 : 0;
 
   const double left = 62, right = 18, top = 14, bottom = 44 + legend_h;
   const double x0 = left, x1 = width - right, y0 = top, y1 = height - bottom;
@@ -319,7 +321,7 @@ void AppendLinePlot(const LinePlot& plot, pugi::xml_node parent) {
     }
   }
 
-  if (!plot.series.empty()) {
+  if (any_label) {
     pugi::xml_node lg = svg.append_child("g");
     lg.append_attribute("class") = "legend";
     lg.append_attribute("fill") = "#1f2630";

@@ -14,7 +14,7 @@ namespace heatdeck::report {
 
 // Labels may mark subscripts as "_{...}": "T_{h1} [°C]" draws h1 lowered.
 struct PlotSeries {
-  std::string label;
+  std::string label;         // in the legend; no legend when every label is empty
   std::vector<double> x, y;  // equal lengths; a non-finite y breaks the line
   // Flow direction drawn as arrowheads on the line: +1 towards larger x,
   // -1 towards smaller x, 0 none.

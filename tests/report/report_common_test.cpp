@@ -133,7 +133,7 @@ TEST(QuantityTextTest, SymbolicAndSubstitutedExpressions) {
   const Model& m = s->model();
   const CaseResult& c = s->results().cases[0];
   const Quantity& q = m.quantities[static_cast<size_t>(Find(*s, "Q"))];
-  EXPECT_EQ(SymbolicText(*q.expr), "m * cp * (T2 - T1)");
+  EXPECT_EQ(SymbolicText(m, *q.expr), "m * cp * (T2 - T1)");
   EXPECT_EQ(SubstitutedText(m, c, *q.expr), "(2 kg/s) * (4 kJ/(kg·K)) * (30 °C - 20 °C)");
   // A power's base with a unit is grouped: (22 mm)^2, not 22 mm^2.
   const Quantity& a = m.quantities[static_cast<size_t>(Find(*s, "A"))];
