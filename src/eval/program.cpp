@@ -1,10 +1,11 @@
 #include "eval/program.h"
 
+#include <algorithm>
 #include <cmath>
 #include <limits>
 
 #include <fmt/format.h>
-#include <muParser.h>
+#include "eval/expr_parser.h"
 
 #include "units/unit.h"
 
@@ -12,6 +13,11 @@ namespace heatdeck {
 namespace {
 
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+
+// Quantities per compiled chunk: large enough that per-call overhead is
+// spread, small enough that a failure is cheap to locate.
+constexpr size_t kChunk = 32;
+constexpr size_t kMaxText = 19000;
 
 // Relative tolerance of == in checks (LANGUAGE.md: "== within 1e-9 relative").
 constexpr double kEqualTol = 1e-9;
@@ -40,9 +46,13 @@ struct Program::CallSite : library::Sink {
   }
   void Error(std::string message) override {
     program->library_error_ = true;
-    program->recorded_.push_back(
-        Recorded{quantity, QuantityMessage{QuantityMessage::Kind::kError,
-                                           fmt::format("{}: {}", fn->name, message), range}});
+    program->recorded_.push_back(Recorded{
+        quantity,
+        QuantityMessage{QuantityMessage::Kind::kError,
+                        // The library's message may name the function already.
+                        message.rfind(fn->name, 0) == 0 ? std::move(message)
+                                                        : fmt::format("{}: {}", fn->name, message),
+                        range}});
   }
   void Note(const char* static_text) override {
     program->recorded_.push_back(
@@ -86,18 +96,23 @@ struct Program::TableSite {
   }
 };
 
+// Consecutive calculated quantities compiled into one muParser expression
+// of assignments, "q5=(…),q6=(…),…": one parser and one Eval() call per
+// chunk instead of per quantity.  Assignments run left to right, so a
+// quantity may read one computed earlier in the same chunk.
 struct Program::Step {
-  int quantity = -1;
-  mu::Parser parser;
-  std::string text;
-  bool constant = false;  // a given: its value is set in the frame, not computed
+  ExprParser parser;
+  std::string compile_error;  // set when the chunk could not be compiled
+  std::vector<int> quantities;
+  std::vector<std::string> texts;  // each quantity's expression text
 };
 
 struct Program::CheckStep {
   int check = -1;
-  mu::Parser whole;  // the full condition (1 or 0)
-  mu::Parser lhs, rhs;
+  ExprParser whole;  // the full condition (1 or 0)
+  ExprParser lhs, rhs;
   bool sides = false;
+  bool broken = false;
 };
 
 // Translates typed expressions to muParser text.  Each variable a parser
@@ -105,7 +120,7 @@ struct Program::CheckStep {
 // size of the deck.
 class Translator {
  public:
-  Translator(const Model& m, mu::Parser& p, double* values,
+  Translator(const Model& m, ExprParser& p, double* values,
              std::vector<std::unique_ptr<Program::CallSite>>* sites,
              std::vector<std::unique_ptr<Program::TableSite>>* table_sites, Program* program,
              int quantity, bool strict_equal)
@@ -201,7 +216,7 @@ class Translator {
   }
 
   const Model& m_;
-  mu::Parser& p_;
+  ExprParser& p_;
   double* values_;
   std::vector<std::unique_ptr<Program::CallSite>>* sites_;
   std::vector<std::unique_ptr<Program::TableSite>>* table_sites_;
@@ -224,16 +239,21 @@ Program::Program(const Model& model, std::vector<int> steps, double* frame, bool
 int Program::AddExpression(const Expr* e) {
   auto step = std::make_unique<Step>();
   Translator t(model_, step->parser, frame_, &sites_, &table_sites_, this, -1, false);
-  step->text = t.Text(e);
-  step->parser.SetExpr(step->text);
+  step->texts.push_back(t.Text(e));
+  try {
+    step->parser.SetExpr(step->texts.back());
+  } catch (const mu::ParserError& err) {
+    step->compile_error = err.GetMsg();
+  }
   extra_.push_back(std::move(step));
   return static_cast<int>(extra_.size()) - 1;
 }
 
 double Program::Eval(int handle) {
+  if (!extra_[static_cast<size_t>(handle)]->compile_error.empty()) return kNaN;
   try {
     return extra_[static_cast<size_t>(handle)]->parser.Eval();
-  } catch (const mu::Parser::exception_type&) {
+  } catch (const mu::ParserError&) {
     return kNaN;
   }
 }
@@ -247,32 +267,70 @@ std::unique_ptr<Program> Program::Clone() const {
 }
 
 void Program::Build(bool with_checks) {
+  std::unique_ptr<Step> chunk;
+  std::string text;
+  auto flush = [&] {
+    if (!chunk) return;
+    if (chunk->compile_error.empty()) {
+      try {
+        chunk->parser.SetExpr(text);
+      } catch (const mu::ParserError& e) {
+        chunk->compile_error = e.GetMsg();
+      }
+    }
+    steps_.push_back(std::move(chunk));
+    text.clear();
+  };
   for (int qi : steps_idx_) {
     const Quantity& q = model_.quantities[static_cast<size_t>(qi)];
-    auto step = std::make_unique<Step>();
-    step->quantity = qi;
-    if (q.kind != QuantityKind::kCalc) {
-      step->constant = true;
-      steps_.push_back(std::move(step));
+    if (q.kind != QuantityKind::kCalc) continue;  // inputs are set in the frame
+    if (!chunk) chunk = std::make_unique<Step>();
+    Translator t(model_, chunk->parser, frame_, &sites_, &table_sites_, this, qi, false);
+    const std::string var = fmt::format("q{}", qi);
+    std::string expr = t.Text(q.expr);
+    if (expr.size() + var.size() + 1 > kMaxText) {
+      // muParser reads at most 20 000 characters per expression.
+      flush();
+      chunk = std::make_unique<Step>();
+      chunk->quantities.push_back(qi);
+      chunk->compile_error = fmt::format(
+          "the expression is too long to compile ({} characters once translated; the limit is "
+          "{}): split it into named quantities",
+          expr.size(), kMaxText);
+      chunk->texts.push_back(std::move(expr));
+      flush();
       continue;
     }
-    Translator t(model_, step->parser, frame_, &sites_, &table_sites_, this, qi, false);
-    step->text = t.Text(q.expr);
-    step->parser.SetExpr(step->text);
-    steps_.push_back(std::move(step));
+    if (!text.empty() && text.size() + expr.size() + var.size() + 2 > kMaxText) {
+      flush();
+      chunk = std::make_unique<Step>();
+      Translator t2(model_, chunk->parser, frame_, &sites_, &table_sites_, this, qi, false);
+      expr = t2.Text(q.expr);
+    }
+    chunk->parser.DefineVar(var, frame_ + qi);
+    chunk->quantities.push_back(qi);
+    chunk->texts.push_back(std::move(expr));
+    if (!text.empty()) text += ',';
+    text += var + "=" + chunk->texts.back();
+    if (chunk->quantities.size() >= kChunk) flush();
   }
+  flush();
   for (size_t ci = 0; with_checks && ci < model_.checks.size(); ++ci) {
     const CheckDef& c = model_.checks[ci];
     auto step = std::make_unique<CheckStep>();
     step->check = static_cast<int>(ci);
     Translator whole(model_, step->whole, frame_, &sites_, &table_sites_, this, -1, false);
-    step->whole.SetExpr(whole.Text(c.expr));
-    if (c.has_sides) {
-      step->sides = true;
-      Translator l(model_, step->lhs, frame_, &sites_, &table_sites_, this, -1, false);
-      step->lhs.SetExpr(l.Text(c.expr->args[0]));
-      Translator r(model_, step->rhs, frame_, &sites_, &table_sites_, this, -1, false);
-      step->rhs.SetExpr(r.Text(c.expr->args[1]));
+    try {
+      step->whole.SetExpr(whole.Text(c.expr));
+      if (c.has_sides) {
+        step->sides = true;
+        Translator l(model_, step->lhs, frame_, &sites_, &table_sites_, this, -1, false);
+        step->lhs.SetExpr(l.Text(c.expr->args[0]));
+        Translator r(model_, step->rhs, frame_, &sites_, &table_sites_, this, -1, false);
+        step->rhs.SetExpr(r.Text(c.expr->args[1]));
+      }
+    } catch (const mu::ParserError&) {
+      step->broken = true;  // reported as not evaluated
     }
     checks_.push_back(std::move(step));
   }
@@ -287,34 +345,59 @@ void Program::LoadGivens() {
 
 std::string Program::ExpressionText(int quantity) const {
   for (const auto& s : steps_) {
-    if (s->quantity == quantity) return s->text;
+    for (size_t i = 0; i < s->quantities.size(); ++i) {
+      if (s->quantities[i] == quantity) return s->texts[i];
+    }
   }
   return "";
+}
+
+bool Program::EvalChunk(Step& s, std::string* error) {
+  if (!s.compile_error.empty()) {
+    *error = s.compile_error;
+    for (int q : s.quantities) frame_[static_cast<size_t>(q)] = kNaN;
+    return false;
+  }
+  try {
+    int n = 0;
+    s.parser.Eval(n);
+    return true;
+  } catch (const mu::ParserError& e) {
+    *error = e.GetMsg();
+    for (int q : s.quantities) frame_[static_cast<size_t>(q)] = kNaN;
+    return false;
+  }
 }
 
 bool Program::Run() {
   failed_step_ = -1;
   failure_ = QuantityMessage{};
   for (auto& s : steps_) {
-    if (s->constant) continue;
     library_error_ = false;
-    double v = kNaN;
-    try {
-      v = s->parser.Eval();
-    } catch (const mu::Parser::exception_type& e) {
-      failed_step_ = s->quantity;
+    const size_t rec_before = recorded_.size();
+    std::string internal;
+    if (!EvalChunk(*s, &internal)) {
+      failed_step_ = s->quantities.front();
       failure_ = QuantityMessage{
           QuantityMessage::Kind::kError,
-          fmt::format("internal error compiling '{}': {}",
-                      model_.quantities[static_cast<size_t>(s->quantity)].name, e.GetMsg()),
+          fmt::format("cannot evaluate '{}': {}",
+                      model_.quantities[static_cast<size_t>(failed_step_)].name, internal),
           {}};
       return false;
     }
-    frame_[static_cast<size_t>(s->quantity)] = v;
-    if (!std::isfinite(v) || library_error_) {
-      failed_step_ = s->quantity;
-      failure_ = Explain(s->quantity);
-      return false;
+    for (int q : s->quantities) {
+      bool lib_error = false;
+      if (library_error_) {
+        for (size_t r = rec_before; r < recorded_.size(); ++r) {
+          lib_error = lib_error || (recorded_[r].quantity == q &&
+                                    recorded_[r].message.kind == QuantityMessage::Kind::kError);
+        }
+      }
+      if (!std::isfinite(frame_[static_cast<size_t>(q)]) || lib_error) {
+        failed_step_ = q;
+        failure_ = Explain(q);
+        return false;
+      }
     }
   }
   return true;
@@ -325,32 +408,46 @@ void Program::RunAll(CaseResult* out) {
   out->ok.assign(n, true);
   out->messages.assign(n, {});
   recorded_.clear();
+  std::vector<int> lib_failed;
   for (auto& s : steps_) {
-    const size_t qi = static_cast<size_t>(s->quantity);
-    if (s->constant) continue;
-    const Quantity& q = model_.quantities[qi];
-    bool inputs_ok = true;
-    for (int d : q.deps) inputs_ok = inputs_ok && out->ok[static_cast<size_t>(d)];
-    if (!inputs_ok) {
-      out->ok[qi] = false;
-      frame_[qi] = kNaN;
-      continue;
-    }
     library_error_ = false;
-    double v = kNaN;
-    try {
-      v = s->parser.Eval();
-    } catch (const mu::Parser::exception_type& e) {
-      out->ok[qi] = false;
-      out->messages[qi].push_back(QuantityMessage{
-          QuantityMessage::Kind::kError, fmt::format("internal error: {}", e.GetMsg()), {}});
-      continue;
+    const size_t rec_before = recorded_.size();
+    std::string internal;
+    const bool evaluated = EvalChunk(*s, &internal);
+    lib_failed.clear();
+    if (library_error_) {
+      for (size_t r = rec_before; r < recorded_.size(); ++r) {
+        if (recorded_[r].message.kind == QuantityMessage::Kind::kError) {
+          lib_failed.push_back(recorded_[r].quantity);
+        }
+      }
     }
-    frame_[qi] = v;
-    if (!std::isfinite(v) || library_error_) {
-      out->ok[qi] = false;
-      frame_[qi] = kNaN;
-      if (!library_error_) out->messages[qi].push_back(Explain(s->quantity));
+    for (int q : s->quantities) {
+      const size_t qi = static_cast<size_t>(q);
+      bool inputs_ok = true;
+      for (int d : model_.quantities[qi].deps)
+        inputs_ok = inputs_ok && out->ok[static_cast<size_t>(d)];
+      const bool lib_error = std::find(lib_failed.begin(), lib_failed.end(), q) != lib_failed.end();
+      if (!inputs_ok) {
+        out->ok[qi] = false;
+        frame_[qi] = kNaN;
+        continue;
+      }
+      if (!evaluated) {
+        out->ok[qi] = false;
+        const Quantity& qq = model_.quantities[qi];
+        out->messages[qi].push_back(QuantityMessage{
+            QuantityMessage::Kind::kError,
+            fmt::format("cannot evaluate '{}': {}", qq.name,
+                        s->compile_error.empty() ? "internal error: " + internal : internal),
+            qq.expr != nullptr ? qq.expr->range : qq.range});
+        continue;
+      }
+      if (!std::isfinite(frame_[qi]) || lib_error) {
+        if (!lib_error) out->messages[qi].push_back(Explain(q));
+        out->ok[qi] = false;
+        frame_[qi] = kNaN;
+      }
     }
   }
   for (auto& r : recorded_) {
@@ -373,7 +470,7 @@ void Program::RunChecks(std::vector<CheckResult>* out, int* failed) const {
     CheckResult& r = (*out)[static_cast<size_t>(s->check)];
     bool inputs_ok = true;
     for (int d : c.deps) inputs_ok = inputs_ok && std::isfinite(frame_[static_cast<size_t>(d)]);
-    if (!inputs_ok) continue;
+    if (!inputs_ok || s->broken) continue;
     try {
       if (s->sides) {
         r.lhs_si = s->lhs.Eval();
@@ -415,7 +512,7 @@ void Program::RunChecks(std::vector<CheckResult>* out, int* failed) const {
       }
       r.evaluated = true;
       if (!r.pass) ++*failed;
-    } catch (const mu::Parser::exception_type&) {
+    } catch (const mu::ParserError&) {
       r.evaluated = false;
     }
   }

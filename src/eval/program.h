@@ -83,6 +83,7 @@ class Program {
   struct CheckStep;
 
   void Build(bool with_checks);
+  bool EvalChunk(Step& s, std::string* error);
   QuantityMessage Explain(int quantity) const;
 
   const Model& model_;

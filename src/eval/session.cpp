@@ -77,7 +77,7 @@ bool Session::LoadText(const std::string& name, std::string text, const SessionO
   if (!options.stdlib_dir.empty()) allowed.push_back(CanonicalDir(options.stdlib_dir));
   build.max_sweep_points = options.max_sweep_points;
   build.load = [this, allowed](const std::string& from_file, const std::string& path,
-                               std::string* loaded_name, std::string_view* loaded_text,
+                               std::string_view* loaded_name, std::string_view* loaded_text,
                                std::string* why) {
     const std::string base = CanonicalDir(fs::path(from_file).parent_path().string());
     std::string resolved;
@@ -121,7 +121,7 @@ bool Session::LoadText(const std::string& name, std::string text, const SessionO
     }
     s_->results.files.push_back(InputFile{shown, Sha256Hex(content)});
     const std::string_view n = s_->files.Add(shown, std::move(content));
-    *loaded_name = std::string(n);
+    *loaded_name = n;
     *loaded_text = s_->files.Text(n);
     return true;
   };

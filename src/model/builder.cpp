@@ -295,7 +295,8 @@ class Builder {
                    fmt::format("templates nested more than {} deep", options_.max_use_depth));
       return;
     }
-    std::string name, why;
+    std::string_view name;
+    std::string why;
     std::string_view text;
     if (!options_.load(std::string(deck.file), s.text, &name, &text, &why)) {
       diags_.Error(s.text_range, fmt::format("cannot use '{}': {}", s.text, why));
@@ -303,11 +304,9 @@ class Builder {
     }
     if (std::find(use_stack_.begin(), use_stack_.end(), name) != use_stack_.end() ||
         name == std::string(main_file_)) {
-      std::string chain;
+      std::string chain = std::string(main_file_) + " -> ";
       for (const auto& f : use_stack_) chain += f + " -> ";
-      diags_.Error(s.text_range,
-                   fmt::format("cycle of templates: {}{}",
-                               chain.empty() ? std::string(main_file_) + " -> " : chain, name));
+      diags_.Error(s.text_range, fmt::format("cycle of templates: {}{}", chain, name));
       return;
     }
     const std::string sub = prefix + std::string(s.name) + ".";
@@ -318,13 +317,7 @@ class Builder {
     keep_->push_back(std::make_unique<Deck>());
     Deck& t = *keep_->back();
     std::string_view file;
-    for (const auto& f : loaded_names_) {
-      if (*f == name) file = *f;
-    }
-    if (file.empty()) {
-      loaded_names_.push_back(std::make_unique<std::string>(name));
-      file = *loaded_names_.back();
-    }
+    file = name;
     t = Parse(file, text, diags_);
     std::string title;
     for (const Stmt& ts : t.stmts) {
@@ -336,8 +329,8 @@ class Builder {
     model_->sections.push_back(Section{title.empty() ? fmt::format("{}: template {}", label, s.text)
                                                      : fmt::format("{}: {}", label, title),
                                        {}});
-    model_->uses.push_back(UseDef{&s, label, name});
-    use_stack_.push_back(name);
+    model_->uses.push_back(UseDef{&s, label, std::string(name)});
+    use_stack_.emplace_back(name);
     Collect(t, sub, &s, prefix);
     use_stack_.pop_back();
     // The using deck's statements after the `use` continue its own section.
@@ -352,14 +345,14 @@ class Builder {
       diags_.Error(s.text_range, "tables cannot be read here");
       return;
     }
-    std::string name, why;
+    std::string_view name;
+    std::string why;
     std::string_view text;
     if (!options_.load(std::string(deck.file), s.text, &name, &text, &why)) {
       diags_.Error(s.text_range, fmt::format("cannot read table '{}': {}", s.text, why));
       return;
     }
-    loaded_names_.push_back(std::make_unique<std::string>(name));
-    const std::string_view file = *loaded_names_.back();
+    const std::string_view file = name;
     std::vector<library::TableError> errors;
     if (!library::ParseTableCsv(text, &t.table, &errors)) {
       for (const auto& e : errors) {
@@ -1475,7 +1468,6 @@ class Builder {
   std::string_view main_file_;
   std::vector<std::string> use_stack_;
   std::set<std::string> used_prefixes_;
-  std::vector<std::unique_ptr<std::string>> loaded_names_;
   std::vector<const Stmt*> case_stmts_;
   std::vector<const Stmt*> sweep_stmts_;
   std::vector<std::pair<const Stmt*, std::string>> profile_stmts_;

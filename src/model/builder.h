@@ -14,10 +14,11 @@ namespace heatdeck {
 
 // Reads a file that a deck refers to (`use`, `table`).  Returns false and
 // sets *why when the file cannot be read or lies outside the allowed folders.
-// On success *name is the name under which the text was registered with the
-// SourceFiles, so diagnostics can quote it.
-using FileLoader = std::function<bool(const std::string& from_file, const std::string& path,
-                                      std::string* name, std::string_view* text, std::string* why)>;
+// On success *name and *text view the name and text registered with the
+// SourceFiles (they outlive the model), so diagnostics can quote the file.
+using FileLoader =
+    std::function<bool(const std::string& from_file, const std::string& path,
+                       std::string_view* name, std::string_view* text, std::string* why)>;
 
 struct BuildOptions {
   FileLoader load;  // null: `use` and `table` report that files cannot be read
