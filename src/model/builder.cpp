@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdlib>
 #include <functional>
 #include <set>
 
@@ -1265,7 +1266,12 @@ class Builder {
       }
       const long count = static_cast<long>(n) + 1;
       d.values.reserve(static_cast<size_t>(count));
-      for (long k = 0; k < count; ++k) d.values.push_back(a + static_cast<double>(k) * step_si);
+      // A + k*S carries binary rounding (0.1 + 5 * 0.01 = 0.15000000000000002);
+      // the value nearest to its 13-digit decimal is the one the engineer meant.
+      for (long k = 0; k < count; ++k) {
+        const double v = a + static_cast<double>(k) * step_si;
+        d.values.push_back(std::strtod(fmt::format("{:.13g}", v).c_str(), nullptr));
+      }
     } else {
       for (const Expr* v : s.over) {
         Type t;
