@@ -1,5 +1,8 @@
 #include "report/html_writer.h"
 
+#include <cstdlib>
+#include <filesystem>
+#include <fstream>
 #include <memory>
 #include <string>
 #include <vector>
@@ -409,6 +412,124 @@ TEST(HtmlWriterTest, ValuesThatCouldNotBeEvaluated) {
   EXPECT_STREQ(One(p.html, "//section[@id='verdict']").attribute("class").value(), "verdict bad");
   EXPECT_STREQ(One(p.html, "//table[@class='checks']/tbody/tr").attribute("data-verdict").value(),
                "not evaluated");
+}
+
+// Temperatures from the deck itself: hot 80 -> 40 degC, cold 20 -> 50 degC.
+constexpr char kProfileDeck[] = R"deck(title "Profile"
+section "Streams"
+given T_h1 = 80 degC
+given T_h2 = 40 degC
+given T_c1 = 20 degC
+given T_c2 = 50 degC
+profile counter: hot T_h1 to T_h2, cold T_c1 to T_c2 "Cooler profile"
+)deck";
+
+// The x of an arrowhead's tip minus the x of its base's middle: positive when
+// it points to larger x.
+double ArrowDirection(pugi::xml_node polygon) {
+  double x[3], y[3];
+  const std::string pts = polygon.attribute("points").value();
+  const char* c = pts.c_str();
+  for (int i = 0; i < 3; ++i) {
+    char* end = nullptr;
+    x[i] = std::strtod(c, &end);
+    y[i] = std::strtod(end + 1, &end);
+    c = end;
+  }
+  (void)y;
+  return x[0] - (x[1] + x[2]) / 2;
+}
+
+TEST(HtmlWriterTest, ProfileFigureFromTheDecksTemperatures) {
+  auto s = Evaluate(kProfileDeck);
+  Parsed p;
+  Parse(Html(s->results()), &p);
+  const pugi::xml_node fig = One(p.html, "//figure[@class='profile']");
+  ASSERT_TRUE(fig);
+  EXPECT_EQ(TextOf(fig.child("figcaption")), "Cooler profile. Arrows show the direction of flow.");
+  const pugi::xml_node svg = fig.child("svg");
+  ASSERT_TRUE(svg);
+  EXPECT_EQ(svg.select_nodes(".//g[@class='series']/polyline").size(), 2u);
+  const auto legend = svg.select_nodes(".//g[@class='legend']/text");
+  ASSERT_EQ(legend.size(), 2u);
+  EXPECT_EQ(TextOf(legend[0].node()), "Hot stream: Th1 80 °C → Th2 40 °C");
+  EXPECT_EQ(TextOf(legend[1].node()), "Cold stream: Tc1 20 °C → Tc2 50 °C");
+  // x runs 0 … 1 (fraction of area); y covers 20 … 80 degC.
+  std::vector<std::string> xt;
+  for (const auto& t : svg.select_nodes(".//g[@class='axis x-axis']/text[@class='tick']"))
+    xt.push_back(TextOf(t.node()));
+  ASSERT_FALSE(xt.empty());
+  EXPECT_EQ(xt.front(), "0.0");
+  EXPECT_EQ(xt.back(), "1.0");
+  EXPECT_EQ(TextOf(One(svg, ".//g[@class='axis y-axis']/text[@class='axis-label']")), "T [°C]");
+  // Counterflow: the hot stream flows towards x = 1, the cold one back.
+  const auto series = svg.select_nodes(".//g[@class='series']");
+  ASSERT_EQ(series.size(), 2u);
+  for (const auto& a : series[0].node().select_nodes("polygon[@class='flow-arrow']"))
+    EXPECT_GT(ArrowDirection(a.node()), 0);
+  const auto cold_arrows = series[1].node().select_nodes("polygon[@class='flow-arrow']");
+  ASSERT_EQ(cold_arrows.size(), 2u);
+  for (const auto& a : cold_arrows) EXPECT_LT(ArrowDirection(a.node()), 0);
+
+  // Parallel flow: both streams flow towards x = 1.
+  std::string parallel = kProfileDeck;
+  parallel.replace(parallel.find("profile counter"), 15, "profile parallel");
+  parallel.replace(parallel.find("T_c2 = 50 degC"), 14, "T_c2 = 35 degC");
+  auto s2 = Evaluate(parallel);
+  Parsed p2;
+  Parse(Html(s2->results()), &p2);
+  const auto arrows =
+      p2.html.select_nodes("//figure[@class='profile']//polygon[@class='flow-arrow']");
+  ASSERT_EQ(arrows.size(), 4u);
+  for (const auto& a : arrows) EXPECT_GT(ArrowDirection(a.node()), 0);
+}
+
+TEST(HtmlWriterTest, ProfileWithATemperatureCrossIsNotDrawn) {
+  std::string deck = kProfileDeck;
+  // Counterflow with the cold outlet above the hot inlet: 80 - 90 < 0.
+  deck.replace(deck.find("T_c2 = 50 degC"), 14, "T_c2 = 90 degC");
+  auto s = Evaluate(deck);
+  Parsed p;
+  Parse(Html(s->results()), &p);
+  const pugi::xml_node fig = One(p.html, "//figure[@class='profile']");
+  ASSERT_TRUE(fig);
+  EXPECT_FALSE(fig.child("svg"));
+  EXPECT_NE(TextOf(One(fig, "div[@class='msg error']")).find("temperature cross"),
+            std::string::npos);
+}
+
+TEST(HtmlWriterTest, NoProfileStatementNoFigure) {
+  auto s = Evaluate(kDeck);
+  Parsed p;
+  Parse(Html(s->results()), &p);
+  EXPECT_TRUE(p.html.select_nodes("//figure").empty());
+}
+
+TEST(HtmlWriterTest, TemplateQuantitiesByFullName) {
+  const std::filesystem::path dir =
+      std::filesystem::path(::testing::TempDir()) / "heatdeck_html_template_test";
+  std::filesystem::create_directories(dir);
+  std::ofstream(dir / "part.deck") << "given a = 2 m \"Side\"\n"
+                                      "given k = 3\n"
+                                      "A = a * a * k in m^2 \"Area\"\n";
+  std::ofstream(dir / "main.deck") << "given s = 4 m\n"
+                                      "use \"part.deck\" as hx with a = s\n";
+  auto session = std::make_unique<Session>();
+  ASSERT_TRUE(session->Load((dir / "main.deck").string(), {}));
+  session->Evaluate();
+  Parsed p;
+  Parse(Html(session->results()), &p);
+  const pugi::xml_node eq = One(p.html, "//div[@data-name='hx.A']");
+  ASSERT_TRUE(eq);
+  EXPECT_EQ(TextOf(One(eq, "span[@class='ref']")), "template hx, line 3");
+  // Names inside the template's expression carry its prefix.
+  EXPECT_EQ(TextOf(One(eq, ".//span[@class='symbolic']/math")), "hx.a·hx.a·hx.k");
+  // 4 m * 4 m * 3 = 48 m^2.
+  EXPECT_EQ(TextOf(One(eq, ".//span[@class='result']")), "48.00\u00a0m²");
+  // The unbound input keeps its default and says so.
+  EXPECT_EQ(TextOf(One(p.html, "//tr[@data-name='hx.k']//span[@class='badge tag']")),
+            "template default");
+  std::filesystem::remove_all(dir);
 }
 
 }  // namespace
