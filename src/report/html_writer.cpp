@@ -1321,7 +1321,7 @@ class HtmlReport {
       for (const std::string& key : keys_in_order) {
         PlotSeries ps;
         ps.markers = true;
-        ps.label = key;  // one line needs no legend
+        ps.label = key.empty() ? PlotSymbol(yq.name) : key;
         for (size_t p = 0; p < s.rows.size(); ++p) {
           if (line_keys[p] != key) continue;
           ps.x.push_back(xq.display.FromSi(swept_values[0][p]));

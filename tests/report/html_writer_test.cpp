@@ -368,6 +368,41 @@ TEST(HtmlWriterTest, SweepTableAndPlots) {
   EXPECT_TRUE(One(p.html, "//nav//a[@href='#sweeps']"));
 }
 
+TEST(HtmlWriterTest, GridSweepPlotsOneLinePerValueOfTheSecondInput) {
+  // A 3 x 2 grid evaluated by the pipeline.  By hand: T_out = T_2 + 8 kW/K *
+  // (T_2 - 20 K) / (m_c * 4 kJ/(kg K)), e.g. 36.67 degC at 30 degC, 3 kg/s.
+  auto s = Evaluate(
+      "given m_h = 2 kg/s\n"
+      "given cp = 4 kJ/(kg*K)\n"
+      "given T_1 = 20 degC\n"
+      "given T_2 = 30 degC\n"
+      "given m_c = 3 kg/s\n"
+      "Q = m_h * cp * (T_2 - T_1) in kW \"Duty\"\n"
+      "T_out = T_2 + Q / (m_c * cp) in degC \"Cold outlet\"\n"
+      "sweep T_2 over 30 degC, 35 degC, 40 degC\n"
+      "sweep m_c over 3 kg/s, 6 kg/s\n");
+  ASSERT_EQ(s->results().sweeps.size(), 1u);
+  Parsed p;
+  Parse(Html(s->results()), &p);
+  const pugi::xml_node sec = One(p.html, "//section[@id='sweeps']");
+  const auto rows = sec.select_nodes(".//table[@class='sweep-table']/tbody/tr");
+  ASSERT_EQ(rows.size(), 6u);
+  EXPECT_EQ(TextOf(One(rows[0].node(), "td[2]")), "30");
+  EXPECT_EQ(TextOf(One(rows[0].node(), "td[3]")), "3");
+  EXPECT_EQ(TextOf(rows[0].node()), "130380.0036.67");
+  const auto plots = sec.select_nodes(".//figure[@class='sweep-plot']");
+  ASSERT_EQ(plots.size(), 2u);  // Q and T_out
+  const pugi::xml_node tout = plots[1].node();
+  EXPECT_EQ(TextOf(One(tout, "figcaption")), "Tout — Cold outlet");
+  const auto lines = tout.select_nodes(".//g[@class='series']/polyline");
+  ASSERT_EQ(lines.size(), 2u);
+  const auto legend = tout.select_nodes(".//g[@class='legend']/text");
+  ASSERT_EQ(legend.size(), 2u);
+  EXPECT_EQ(TextOf(legend[0].node()), "mc = 3 kg/s");
+  EXPECT_EQ(TextOf(legend[1].node()), "mc = 6 kg/s");
+  EXPECT_EQ(tout.select_nodes(".//g[@class='series']/circle").size(), 6u);
+}
+
 TEST(HtmlWriterTest, AppendixListsFilesUnitsMethodsAndWarnings) {
   auto s = Evaluate(kDeck);
   Parsed p;

@@ -231,5 +231,21 @@ TEST(MarkdownWriterTest, CasesAndSweeps) {
   EXPECT_TRUE(HasLine(md, "| 2 | 15 | 35.00 | outside \\<range\\> |"));
 }
 
+TEST(MarkdownWriterTest, ProfileAsATable) {
+  // Counterflow, hot 80 -> 40 degC, cold 20 -> 50 degC: at x = 0 (hot inlet)
+  // the cold stream leaves at 50 degC; at x = 1 it enters at 20 degC.
+  auto s = Evaluate(
+      "given T_h1 = 80 degC\n"
+      "given T_h2 = 40 degC\n"
+      "given T_c1 = 20 degC\n"
+      "given T_c2 = 50 degC\n"
+      "profile counter: hot T_h1 to T_h2, cold T_c1 to T_c2 \"Cooler profile\"\n");
+  const std::string md = Markdown(s->results());
+  EXPECT_TRUE(HasLine(md, "**Figure: Cooler profile**"));
+  EXPECT_TRUE(HasLine(md, "| x | Hot [°C] | Cold [°C] |"));
+  EXPECT_TRUE(HasLine(md, "| 0 | 80.00 | 50.00 |"));
+  EXPECT_TRUE(HasLine(md, "| 1 | 40.00 | 20.00 |"));
+}
+
 }  // namespace
 }  // namespace heatdeck
