@@ -11,6 +11,7 @@
 
 #include <fmt/format.h>
 
+#include "report/report_common.h"
 #include "report/xlsx_formula.h"
 
 namespace heatdeck {
@@ -36,15 +37,12 @@ constexpr lxw_row_t kFirstContentRow = 5;
 
 // A spreadsheet cell holds at most 32767 characters.
 constexpr size_t kMaxCellChars = 32767;
+// A sheet has 1048576 rows; a sweep table stops well short of that.
+constexpr size_t kMaxSweepRows = 1000000;
 
-// Used when the deck gives no date: documents the workbook wrote at the
-// same instant, so that the bytes never depend on the clock.
+// The document's creation date when the deck gives none (meta date or
+// --date): fixed, so that the bytes never depend on the clock.
 constexpr time_t kFixedCreated = 946684800;  // 2000-01-01T00:00:00Z
-
-constexpr const char* kCaution =
-    "Caution: these results are for a competent engineer to check before they are used. Local "
-    "codes, the equipment standards and licensed professional practice govern; this workbook "
-    "does not replace them.";
 
 // Days since 1970-01-01 of a proleptic Gregorian date (the civil-from-days
 // inverse; std::chrono's year_month_day would need the C++20 calendar
@@ -213,7 +211,6 @@ class Writer {
   lxw_format* input_ = nullptr;
   lxw_format* value_only_ = nullptr;
   lxw_format* caution_ = nullptr;
-  lxw_format* wrap_ = nullptr;
 };
 
 void Writer::MakeStyles() {
@@ -244,8 +241,6 @@ void Writer::MakeStyles() {
   format_set_bold(caution_);
   format_set_text_wrap(caution_);
   format_set_font_color(caution_, 0x9C0006);
-  wrap_ = workbook_add_format(wb_);
-  format_set_text_wrap(wrap_);
 }
 
 void Writer::SetProperties() {
@@ -372,13 +367,11 @@ void Writer::CheckRow(const CaseResult& c, size_t k, lxw_worksheet* ws, lxw_row_
   if (d.has_sides) {
     const std::string l = Cell(row, kColLhs, false);
     const std::string h = Cell(row, kColRhs, false);
-    bool sides_live = true;
     const auto side = [&](const Expr* e, lxw_col_t col, double v) {
       std::string f, w;
       if (formulas_.Write(e, &f, &w)) {
         Formula(ws, row, col, f, res.evaluated ? v : NAN, nullptr);
       } else {
-        sides_live = false;
         Number(ws, row, col, res.evaluated ? v : NAN, value_only_);
         Note(ws, row, col,
              fmt::format("heatdeck's value, not a formula: {}. This cell does not recalculate "
@@ -388,7 +381,6 @@ void Writer::CheckRow(const CaseResult& c, size_t k, lxw_worksheet* ws, lxw_row_
     };
     side(d.expr->args[0], kColLhs, res.lhs_si);
     side(d.expr->args[1], kColRhs, res.rhs_si);
-    (void)sides_live;
     Text(ws, row, kColSiUnit, SiUnitText(d.side_unit.dim));
     const std::string near = fmt::format("ABS({0}-{1})<=1E-9*MAX(ABS({0}),ABS({1}))", l, h);
     std::string cond, margin;
@@ -492,7 +484,8 @@ Writer::CheckRows Writer::CaseSheet(size_t case_index, lxw_worksheet* ws,
   };
 
   for (const Section& s : m_.sections) {
-    if (!s.title.empty()) section_row(s.title);
+    if (!report::SectionShown(s)) continue;
+    section_row(report::SectionTitle(s));
     for (const Section::Item& item : s.items) {
       switch (item.kind) {
         case Section::Item::Kind::kNarrative:
@@ -532,29 +525,25 @@ void Writer::Summary(lxw_worksheet* ws, const std::vector<std::string>& sheets,
   lxw_row_t row = 0;
   Text(ws, row++, 0, m_.title.empty() ? r_.deck_path : m_.title, title_);
   ++row;
-  // The title block: the fixed fields in their places, then any other key.
-  static const char* kFixed[] = {"project",  "number",  "revision", "date",  "client",
-                                 "prepared", "checked", "approved", "status"};
-  std::set<std::string> fixed(std::begin(kFixed), std::end(kFixed));
-  for (const char* key : kFixed) {
-    for (const auto& [k, v] : m_.meta) {
-      if (k != key) continue;
-      Text(ws, row, 0, k, bold_);
-      Text(ws, row++, 1, v);
-    }
+  // The title block as every report gives it: the fixed fields, the
+  // sign-off roles (blank ones too, to be filled in), then any other key.
+  for (const report::MetaField& f : report::TitleFields()) {
+    const std::string v = report::MetaValue(r_, f.key);
+    if (v.empty()) continue;
+    Text(ws, row, 0, f.label, bold_);
+    Text(ws, row++, 1, v);
+  }
+  for (const report::MetaField& f : report::SignOffRoles()) {
+    Text(ws, row, 0, f.label, bold_);
+    Text(ws, row++, 1, report::MetaValue(r_, f.key));
   }
   for (const auto& [k, v] : m_.meta) {
-    if (fixed.count(k) > 0) continue;
+    if (report::IsPlacedMetaKey(k)) continue;
     Text(ws, row, 0, k, bold_);
     Text(ws, row++, 1, v);
   }
   Text(ws, row, 0, "deck", bold_);
   Text(ws, row++, 1, r_.deck_path);
-  if (!r_.date.empty() && std::none_of(m_.meta.begin(), m_.meta.end(),
-                                       [](const auto& kv) { return kv.first == "date"; })) {
-    Text(ws, row, 0, "date", bold_);
-    Text(ws, row++, 1, r_.date);
-  }
   Text(ws, row, 0, "written by", bold_);
   Text(ws, row++, 1, fmt::format("heatdeck {}", r_.tool_version));
   for (const InputFile& f : r_.files) {
@@ -572,17 +561,8 @@ void Writer::Summary(lxw_worksheet* ws, const std::vector<std::string>& sheets,
   int total_failed = 0;
   for (size_t ci = 0; ci < r_.cases.size(); ++ci) {
     const CaseResult& c = r_.cases[ci];
-    int passed = 0, failed = 0, not_evaluated = 0;
-    for (const CheckResult& res : c.checks) {
-      if (!res.evaluated) {
-        ++not_evaluated;
-      } else if (res.pass) {
-        ++passed;
-      } else {
-        ++failed;
-      }
-    }
-    total_failed += failed;
+    const report::CheckTally tally = report::Tally(m_, c);
+    total_failed += tally.failed;
     Text(ws, row, 0, c.name, bold_);
     Text(ws, row, 1, sheets[ci]);
     Number(ws, row, 2, static_cast<double>(m_.checks.size()), nullptr);
@@ -591,14 +571,14 @@ void Writer::Summary(lxw_worksheet* ws, const std::vector<std::string>& sheets,
       const std::string range =
           fmt::format("{}!{}:{}", SheetRef(sheets[ci]), Cell(cr.first, kColVerdict, true),
                       Cell(cr.last, kColVerdict, true));
-      Formula(ws, row, 3, fmt::format("COUNTIF({},\"PASS\")", range), passed, nullptr);
-      Formula(ws, row, 4, fmt::format("COUNTIF({},\"FAIL\")", range), failed, nullptr);
+      Formula(ws, row, 3, fmt::format("COUNTIF({},\"PASS\")", range), tally.passed, nullptr);
+      Formula(ws, row, 4, fmt::format("COUNTIF({},\"FAIL\")", range), tally.failed, nullptr);
     } else {
       Number(ws, row, 3, 0, nullptr);
       Number(ws, row, 4, 0, nullptr);
     }
-    Number(ws, row, 5, not_evaluated, nullptr);
-    Number(ws, row, 6, c.warnings, nullptr);
+    Number(ws, row, 5, tally.not_evaluated, nullptr);
+    Number(ws, row, 6, tally.warnings, nullptr);
     ++row;
   }
   ++row;
@@ -614,7 +594,8 @@ void Writer::Summary(lxw_worksheet* ws, const std::vector<std::string>& sheets,
   }
   row += 2;
   worksheet_set_row(ws, row, 48, nullptr);
-  Check(worksheet_merge_range(ws, row, 0, row, 6, kCaution, caution_), "writing the caution");
+  Check(worksheet_merge_range(ws, row, 0, row, 6, report::kSafetyCaution, caution_),
+        "writing the caution");
   row += 2;
 
   Text(ws, row++, 0, "Reading this workbook", title_);
@@ -674,6 +655,14 @@ void Writer::SweepSheet(const SweepResult& s, lxw_worksheet* ws, const std::stri
     }
     return false;
   });
+  if (order.size() > kMaxSweepRows) {
+    Text(
+        ws, 2, 0,
+        fmt::format("Only the first {} of {} points fit in a sheet; the CSV output holds them all.",
+                    kMaxSweepRows, order.size()),
+        caution_);
+    order.resize(kMaxSweepRows);
+  }
   for (size_t n = 0; n < order.size(); ++n) {
     const size_t p = order[n];
     const lxw_row_t row = header + 1 + static_cast<lxw_row_t>(n);

@@ -25,14 +25,14 @@ struct TestModel {
     const std::string_view name = files.Add("input", text);
     deck = Parse(name, files.Text(name), diags);
     BuildOptions options;
-    options.load = [this, csv](const std::string&, const std::string& path, std::string* loaded,
-                               std::string_view* body, std::string* why) {
+    options.load = [this, csv](const std::string&, const std::string& path,
+                               std::string_view* loaded, std::string_view* body, std::string* why) {
       if (csv.empty()) {
         *why = "no files in this test";
         return false;
       }
       const std::string_view n = files.Add(path, csv);
-      *loaded = std::string(n);
+      *loaded = n;
       *body = files.Text(n);
       return true;
     };

@@ -50,6 +50,10 @@ CACHE_RTOL = 1e-12  # cached values are printed with 16 significant digits
 # Cells that depend on BESSELK are held to this looser tolerance, and the
 # script says how many.
 BESSELK_RTOL = 1e-7
+# A difference of nearly equal terms keeps only the digits the terms do not
+# share, in any spreadsheet: it is compared to this tolerance relative to the
+# terms (see Tolerance), some thousand times the rounding of a double.
+CANCEL_RTOL = 1e-12
 
 
 # ---------------------------------------------------------------- reading
@@ -217,11 +221,13 @@ def recalc(files, outdir, profile):
 
 
 def close(a, b, rtol, scale=0.0):
+    """a equals b to rtol relative, or to CANCEL_RTOL relative to scale (the
+    magnitude of the terms a difference was computed from)."""
     if isinstance(a, str) or isinstance(b, str):
         return a == b
     if a is None or b is None:
         return False
-    return abs(a - b) <= rtol * max(abs(a), abs(b), scale) or a == b
+    return abs(a - b) <= max(rtol * max(abs(a), abs(b)), CANCEL_RTOL * scale) or a == b
 
 
 def run_heatdeck(binary, deck, outdir):
@@ -249,13 +255,6 @@ class Layout:
         self.inputs = {}  # (sheet index, ref) -> SI value of a given
         self.values = {}  # (sheet index, ref) -> heatdeck's value in a non-formula cell
         self.errors = []
-        # A check's sides and margin are compared relative to the larger
-        # side: a side that is itself a difference of nearly equal terms
-        # (an energy balance's residual) carries the rounding of those
-        # terms, which is tiny beside the limit it is checked against but
-        # not beside its own value.  (LibreOffice also rounds a difference
-        # of values equal to about 15 digits to exactly 0.)
-        self.scale = {}
         sheets = book["sheets"]
         calc_sheets = self._calc_sheets()
         for case_index, si in enumerate(calc_sheets):
@@ -316,11 +315,9 @@ class Layout:
                 verdict = None if chk["pass"] is None else ("PASS" if chk["pass"] else "FAIL")
                 self._expect(si, ref_of(5, match), verdict, "calc")
                 if chk["lhs_si"] is not None:
-                    side = max(abs(chk["lhs_si"]), abs(chk["rhs_si"]))
                     for col, value in ((2, chk["lhs_si"]), (4, chk["rhs_si"]),
                                        (6, chk["margin"])):
                         self._expect(si, ref_of(col, match), value, "calc")
-                        self.scale[(si, ref_of(col, match))] = side
         # The summary: a row per case with COUNTIF formulas and the verdict.
         summary = sheets[0]["cells"]
         total_failed = 0
@@ -370,49 +367,178 @@ class Layout:
             self.values[(si, ref)] = value
 
 
-def besselk_cells(book):
-    """The formula cells whose value depends on BESSELK: their formula calls
-    it, or reads (by defined name or same-sheet reference) a cell that does."""
+def _references(book):
+    """For every formula cell: the cells its formula reads (by defined name,
+    or by reference on its own sheet), and its top-level additive terms
+    (after ABS( ), a sign and parentheses are peeled off) as cells, numbers,
+    or None for a compound term."""
     names = {}
     for n in book["names"]:
         if n["ref"] is None:
             continue
         sheet = next(i for i, s in enumerate(book["sheets"]) if s["name"] == n["sheet"])
         names[(n["name"].upper(), n["local"])] = (sheet, n["ref"])
-    reads = {}
+
+    def target(token, si):
+        t = names.get((token.upper(), si)) or names.get((token.upper(), None))
+        if t is None and re.fullmatch(r"[A-Z]{1,3}\d+", token):
+            t = (si, token)
+        return t
+
+    def peel(f):
+        while True:
+            f = f.strip()
+            if f.startswith("-"):
+                f = f[1:]
+            elif f.startswith("ABS(") and _closing(f, 3) == len(f) - 1:
+                f = f[4:-1]
+            elif f.startswith("(") and _closing(f, 0) == len(f) - 1:
+                f = f[1:-1]
+            else:
+                return f
+
+    out = {}
     for si, sheet in enumerate(book["sheets"]):
         for ref, cell in sheet["cells"].items():
             if "f" not in cell:
                 continue
-            deps = set()
-            for token in re.findall(r"[A-Za-z_][A-Za-z0-9_.]*", re.sub(r'"[^"]*"', "", cell["f"])):
-                target = names.get((token.upper(), si)) or names.get((token.upper(), None))
-                if target:
-                    deps.add(target)
-                elif re.fullmatch(r"[A-Z]{1,3}\d+", token):
-                    deps.add((si, token))
-            reads[(si, ref)] = (deps, "BESSELK(" in cell["f"].upper())
-    tainted = {k for k, (_, direct) in reads.items() if direct}
-    grown = True
-    while grown:
-        grown = False
-        for k, (deps, _) in reads.items():
-            if k not in tainted and deps & tainted:
-                tainted.add(k)
-                grown = True
-    return tainted
+            f = re.sub(r'"[^"]*"', "", cell["f"])
+            reads = set()
+            for token in re.findall(r"[A-Za-z_][A-Za-z0-9_.]*", f):
+                t = target(token, si)
+                if t:
+                    reads.add(t)
+            terms = []
+            for term in _split_additive(peel(f)):
+                term = peel(term)
+                if re.fullmatch(r"[\d.]+(?:E[-+]?\d+)?", term):
+                    terms.append(float(term))
+                elif re.fullmatch(r"[A-Za-z_][A-Za-z0-9_.]*", term):
+                    terms.append(target(term, si))
+                else:
+                    terms.append(None)
+            out[(si, ref)] = (reads, terms if len(terms) > 1 else [], cell["f"])
+    return out
 
 
-def compare(book, expected, label, rtol, scale=None, loose=frozenset()):
-    """Mismatches between the cells of book and the expected values; scale
-    gives, for some cells, a magnitude the tolerance is relative to; cells
-    in loose get BESSELK_RTOL."""
+def _closing(f, i):
+    """Index of the parenthesis closing the one at f[i]."""
+    depth = 0
+    for j in range(i, len(f)):
+        depth += {"(": 1, ")": -1}.get(f[j], 0)
+        if depth == 0:
+            return j
+    return -1
+
+
+def _split_additive(f):
+    """f split at its top-level + and - (not inside parentheses, not the
+    sign of an exponent such as 1E-09, not a unary sign)."""
+    parts, depth, start = [], 0, 0
+    for i, ch in enumerate(f):
+        if ch == "(":
+            depth += 1
+        elif ch == ")":
+            depth -= 1
+        elif ch in "+-" and depth == 0 and i > start:
+            prev = f[i - 1]
+            if prev in "*/^(,<>=+-":
+                continue  # a unary sign
+            if prev == "E" and i >= 2 and f[i - 2].isdigit():
+                continue  # an exponent
+            parts.append(f[start:i])
+            start = i + 1
+    parts.append(f[start:])
+    return parts
+
+
+class Tolerance:
+    """Per formula cell, the magnitude of the terms it was computed from, to
+    which CANCEL_RTOL applies (RTOL applies to the value itself, whichever
+    is looser wins).
+
+    A difference of nearly equal terms (an energy balance's residual, a
+    margin, a display value in degC) carries the rounding of its terms, so
+    its error is relative to them, not to its own small value; and a value
+    computed from such a cell inherits its relative error.  So, with v the
+    cell's value (heatdeck's):
+      - a formula whose top level adds or subtracts terms: the largest of
+        |v| and the magnitudes of the terms that are single cells or numbers;
+      - any other formula: |v| times the largest ratio magnitude/|value| of
+        the cells it reads (1 when none lost digits).
+    A product keeps its relative tolerance, so nothing is loosened unless a
+    cancellation upstream makes it so.  Cells that depend on BESSELK get
+    BESSELK_RTOL (see above) instead of RTOL.
+    """
+
+    def __init__(self, book, values):
+        self.refs = _references(book)
+        self.values = values  # (sheet, ref) -> number, for every numeric cell
+        self.memo = {}
+        self.besselk = set()
+        for key in self.refs:
+            if self._bessel(key, set()):
+                self.besselk.add(key)
+
+    def _bessel(self, key, seen):
+        if key not in self.refs or key in seen:
+            return False
+        seen.add(key)
+        reads, _, f = self.refs[key]
+        return "BESSELK(" in f.upper() or any(self._bessel(r, seen) for r in reads)
+
+    def magnitude(self, key):
+        if key in self.memo:
+            return self.memo[key]
+        self.memo[key] = 0.0  # a cycle (none expected) reads as no widening
+        v = abs(self.values.get(key, 0.0) or 0.0)
+        if key not in self.refs:
+            self.memo[key] = v
+            return v
+        reads, terms, _ = self.refs[key]
+        if terms:
+            m = v
+            for t in terms:
+                if isinstance(t, float):
+                    m = max(m, abs(t))
+                elif t is not None:
+                    m = max(m, self.magnitude(t))
+        else:
+            ratio = 1.0
+            for r in reads:
+                rv = abs(self.values.get(r, 0.0) or 0.0)
+                if rv > 0:
+                    ratio = max(ratio, self.magnitude(r) / rv)
+            m = v * ratio
+        self.memo[key] = m
+        return m
+
+
+def numeric_values(book):
+    return {(si, ref): c["v"] for si, s in enumerate(book["sheets"])
+            for ref, c in s["cells"].items() if isinstance(c.get("v"), float)}
+
+
+WORST = [0.0, ""]  # the largest |difference| / allowed seen, and where
+
+
+def compare(book, expected, label, rtol, tolerance=None):
+    """Mismatches between the cells of book and the expected values, to rtol
+    relative (to the magnitudes of a Tolerance, when given)."""
     errors = []
     for (si, ref), want in sorted(expected.items()):
         sheet = book["sheets"][si]
         got = sheet["cells"].get(ref, {}).get("v")
-        tol = BESSELK_RTOL if (si, ref) in loose else rtol
-        if not close(got, want, tol, (scale or {}).get((si, ref), 0.0)):
+        tol, scale = rtol, 0.0
+        if tolerance is not None:
+            scale = tolerance.magnitude((si, ref))
+            if (si, ref) in tolerance.besselk:
+                tol = BESSELK_RTOL
+        if isinstance(got, float) and isinstance(want, float):
+            allowed = max(tol * max(abs(got), abs(want)), CANCEL_RTOL * scale)
+            if allowed > 0 and abs(got - want) / allowed > WORST[0]:
+                WORST[:] = [abs(got - want) / allowed, "%s %s!%s" % (label, sheet["name"], ref)]
+        if not close(got, want, tol, scale):
             errors.append("%s: %s!%s = %r (formula %s), expected %r" %
                           (label, sheet["name"], ref, got, sheet["cells"].get(ref, {}).get("f"),
                            want))
@@ -508,19 +634,27 @@ def check(args):
         expected = {(si, ref): c["v"] for si, s in enumerate(job["book"]["sheets"])
                     for ref, c in s["cells"].items() if "f" in c and "v" in c
                     and c["v"] not in ("#N/A",)}
-        loose = besselk_cells(job["book"])
-        job["loose"] = loose
-        errors += compare(book, expected, job["deck"] + " (recalculated)", RTOL,
-                          job["layout"].scale, loose)
-        print("%s: %d formula cells recalculated by LibreOffice (%d depend on BESSELK)" %
-              (job["deck"], len(expected), len(loose)))
+        tolerance = Tolerance(job["book"], numeric_values(job["book"]))
+        errors += compare(book, expected, job["deck"] + " (recalculated)", RTOL, tolerance)
+        ratios = [tolerance.magnitude(k) / abs(v) for k, v in expected.items()
+                  if isinstance(v, float) and v != 0]
+        widened = sum(1 for r in ratios if r > 1.000001)
+        print("%s: %d formula cells recalculated by LibreOffice (%d depend on BESSELK; "
+              "%d with terms larger than their value, by up to %.3g times)" %
+              (job["deck"], len(expected), len(tolerance.besselk), widened,
+               max(ratios, default=1.0)))
     for job, out in zip(changed_jobs, outs[len(jobs):]):
         book = read_workbook(out)
+        values = numeric_values(job["book"])
+        values.update({k: v for k, v in job["layout2"].expected.items() if isinstance(v, float)})
+        values.update(job["layout2"].inputs)
+        values.update(job["layout2"].values)
         errors += compare(book, job["layout2"].expected,
                           "%s (with %s)" % (job["deck"], job["assignment"]), RTOL,
-                          job["layout2"].scale, job["loose"])
+                          Tolerance(job["book"], values))
         print("%s: with %s, %d formula cells checked, %d moved" %
               (job["deck"], job["assignment"], len(job["layout2"].expected), job["moved"]))
+    print("largest difference: %.3g of its tolerance (%s)" % tuple(WORST))
     for e in errors:
         print("MISMATCH " + e)
     print("%d mismatches" % len(errors))
