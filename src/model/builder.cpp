@@ -1,6 +1,7 @@
 #include "model/builder.h"
 
 #include <algorithm>
+#include <cctype>
 #include <cmath>
 #include <cstdlib>
 #include <functional>
@@ -69,7 +70,7 @@ class Builder {
     main_file_ = deck.file;
     Collect(deck, "", nullptr, "");
     ResolveAll();
-    if (!OrderQuantities()) return std::move(model_);
+    OrderQuantities();
     TypeAll();
     return std::move(model_);
   }
@@ -374,13 +375,20 @@ class Builder {
   }
 
   // Parses a unit written at `range`; reports errors there.
-  bool ParseUnitAt(std::string_view text, SourceRange range, units::Unit* out) {
+  bool ParseUnitAt(std::string_view text, SourceRange range, units::Unit* out,
+                   const std::string& hint = {}) {
     units::UnitError err;
     if (units::ParseUnit(text, out, &err)) return true;
     SourceRange r = range;
     r.col = range.col + err.offset;
     r.last_col = r.col + std::max(err.length, 1) - 1;
-    diags_.Error(r, err.message);
+    std::string message = err.message;
+    // A word that names a quantity or a constant was surely meant as a
+    // factor: there is no implicit multiplication.
+    bool names_value = model_->Find(std::string(text)) >= 0;
+    for (const auto& c : BuiltinConstants()) names_value = names_value || text == c.name;
+    if (!hint.empty() && names_value) message += "; " + hint;
+    diags_.Error(r, message);
     return false;
   }
 
@@ -567,6 +575,8 @@ class Builder {
     auto it = std::find_if(stack.begin(), stack.end(), [&](const auto& p) { return p.first == w; });
     std::vector<int> members;
     for (; it != stack.end(); ++it) members.push_back(it->first);
+    in_cycle_.resize(model_->quantities.size(), false);
+    for (int m : members) in_cycle_[static_cast<size_t>(m)] = true;
     // Report each cycle once, at its member that comes first in the file.
     std::vector<int> key = members;
     std::sort(key.begin(), key.end());
@@ -611,7 +621,13 @@ class Builder {
       case ExprKind::kNumber: {
         info.literal = true;
         if (!e->unit.empty()) {
-          if (!ParseUnitAt(e->unit, e->unit_range, &info.unit)) {
+          // "2 x": a word after a number is a unit; say how to multiply.
+          const bool word = std::all_of(e->unit.begin(), e->unit.end(), [](char c) {
+            return std::isalnum(static_cast<unsigned char>(c)) != 0 || c == '_';
+          });
+          const std::string hint =
+              word ? fmt::format("write {} * {} to multiply", e->text, e->unit) : std::string();
+          if (!ParseUnitAt(e->unit, e->unit_range, &info.unit, hint)) {
             *bad = true;
             break;
           }
@@ -1044,9 +1060,14 @@ class Builder {
 
   void TypeAll() {
     bad_.assign(model_->quantities.size(), false);
+    in_cycle_.resize(model_->quantities.size(), false);
     for (int qi : model_->order) {
       Quantity& q = model_->quantities[static_cast<size_t>(qi)];
       bool bad = false;
+      if (in_cycle_[static_cast<size_t>(qi)]) {
+        bad_[static_cast<size_t>(qi)] = true;  // reported as a cycle; its type is unknown
+        continue;
+      }
       if (q.kind == QuantityKind::kSolved) {
         TypeSolved(q, &bad);
         bad_[static_cast<size_t>(qi)] = bad;
@@ -1479,6 +1500,7 @@ class Builder {
   std::vector<std::pair<const Stmt*, std::string>> profile_stmts_;
   std::set<std::vector<int>> reported_cycles_;
   std::vector<bool> bad_;
+  std::vector<bool> in_cycle_;
 };
 
 }  // namespace
