@@ -5,15 +5,33 @@
 #include <fmt/format.h>
 
 namespace heatdeck {
+namespace {
+
+// Messages quote the deck's text; a megabyte-long name must not make a
+// megabyte-long message.  Keeps the head and the tail, cut at UTF-8
+// character boundaries.
+std::string Bounded(std::string m) {
+  constexpr size_t kHead = 300, kTail = 80;
+  if (m.size() <= kHead + kTail + 20) return m;
+  auto boundary = [&](size_t i) {
+    while (i > 0 && i < m.size() && (static_cast<unsigned char>(m[i]) & 0xC0) == 0x80) --i;
+    return i;
+  };
+  const size_t head = boundary(kHead);
+  const size_t tail = boundary(m.size() - kTail);
+  return m.substr(0, head) + fmt::format("…[{} bytes]…", tail - head) + m.substr(tail);
+}
+
+}  // namespace
 
 Diagnostic& Diagnostics::Error(SourceRange r, std::string message) {
   ++errors_;
-  list_.push_back(Diagnostic{Severity::kError, r, std::move(message), {}, {}});
+  list_.push_back(Diagnostic{Severity::kError, r, Bounded(std::move(message)), {}, {}});
   return list_.back();
 }
 
 Diagnostic& Diagnostics::Warning(SourceRange r, std::string message) {
-  list_.push_back(Diagnostic{Severity::kWarning, r, std::move(message), {}, {}});
+  list_.push_back(Diagnostic{Severity::kWarning, r, Bounded(std::move(message)), {}, {}});
   return list_.back();
 }
 

@@ -1,5 +1,8 @@
 #include "lang/parser.h"
 
+#include <algorithm>
+#include <vector>
+
 #include <fmt/format.h>
 
 #include "lang/lexer.h"
@@ -483,10 +486,36 @@ class Parser {
     return true;
   }
 
+  // Every later stage walks the tree recursively, so the tree's depth is
+  // bounded too, not only the parser's own recursion: a sum of 10 000 terms
+  // is as deep as 10 000 parentheses.
   const Expr* Binary(ExprKind k, const Expr* a, const Expr* b) {
+    const int depth = 1 + std::max(Depth(*a), Depth(*b));
+    if (depth > limits_.max_depth) {
+      if (!too_deep_reported_) {
+        diags_.Error(Span(a->range, b->range),
+                     fmt::format("expression nested too deeply (limit {} levels); split it into "
+                                 "named quantities",
+                                 limits_.max_depth));
+        too_deep_reported_ = true;
+      }
+      return nullptr;
+    }
     Expr& e = deck_.NewExpr(k, Span(a->range, b->range));
     e.args = {a, b};
+    SetDepth(e, depth);
     return &e;
+  }
+
+  int Depth(const Expr& e) const {
+    const auto i = static_cast<size_t>(e.id);
+    return i < depth_of_.size() ? depth_of_[i] : 1;
+  }
+
+  void SetDepth(const Expr& e, int depth) {
+    if (depth_of_.size() <= static_cast<size_t>(e.id))
+      depth_of_.resize(static_cast<size_t>(e.id) + 1, 0);
+    depth_of_[static_cast<size_t>(e.id)] = depth;
   }
 
   const Expr* ParseExpr() {
@@ -691,6 +720,8 @@ class Parser {
   Deck deck_;
   Token cur_;
   int depth_ = 0;
+  std::vector<int> depth_of_;  // tree depth per expression id
+  bool too_deep_reported_ = false;
 };
 
 }  // namespace

@@ -264,6 +264,9 @@ std::vector<std::string> SuggestUnits(std::string_view text) {
   // Short symbols are a keystroke away from dozens of others ("x" -> "m",
   // "s", "K"), so they only get case-insensitive matches ("kw" -> "kW").
   const int max_distance = norm.size() <= 2 ? 0 : norm.size() <= 4 ? 1 : 2;
+  // No unit symbol is longer than a dozen characters: a longer text is
+  // nothing's misspelling, and comparing it would cost time for nothing.
+  if (norm.size() > 24) return {};
   struct Scored {
     int folded;
     int exact;
