@@ -75,7 +75,7 @@ table { border-collapse: collapse; width: 100%; margin: 1mm 0 3mm; }
 th, td { text-align: left; vertical-align: top; padding: 1.2mm 2mm; border-bottom: 0.5pt solid var(--rule); }
 th { font-size: 8pt; font-weight: 700; color: var(--muted); background: var(--faint); border-bottom: 0.8pt solid var(--ink); }
 tr { break-inside: avoid; }
-table[data-keep] { break-inside: avoid; }
+table[data-keep], .section-intro { break-inside: avoid; }
 td.num, th.num { text-align: right; white-space: nowrap; }
 td.unit { white-space: nowrap; }
 td.src, .small { font-size: 8.5pt; color: var(--muted); }
@@ -131,7 +131,6 @@ tr.failed td:first-child { box-shadow: inset 2.5pt 0 0 var(--fail); }
 .eq-rel { text-align: center; }
 .eq-lines .result { font-weight: 700; font-size: 10.5pt; white-space: nowrap; }
 .eq-lines .failed-value { color: var(--fail); font-weight: 700; }
-.eq math { overflow-x: auto; max-width: 100%; }
 mtext.u { color: #3a4350; }
 .eq-notes { margin: 1.2mm 0 0 4mm; font-size: 8.5pt; }
 .eq-notes div { margin-top: 0.6mm; }
@@ -161,7 +160,6 @@ td.changed { background: var(--warn-bg); font-weight: 700; }
   h2 { break-before: auto; }
   section.appendix { break-before: page; }
   a { color: inherit; text-decoration: none; }
-  .eq math { overflow: visible; }
 }
 @media screen {
   .report { box-shadow: 0 0 3mm rgba(0, 0, 0, 0.12); margin-bottom: 10mm; }
@@ -792,12 +790,15 @@ class HtmlReport {
     const int number = SectionNumbers(m_)[si];
     xml_node s = Add(main, "section", "calc-section");
     s.append_attribute("id") = SectionId(si).substr(1).c_str();
-    xml_node h2 = Add(s, "h2");
+    // The heading, its introduction and a short inputs table print on one
+    // page, so that no heading is left alone at the foot of a page.
+    xml_node intro = Add(s, "div", "section-intro");
+    xml_node h2 = Add(intro, "h2");
     AddText(h2, "span", fmt::format("{}", number), "num");
     Text(h2, SectionTitle(sec));
-    Newline(s);
+    Newline(intro);
     if (r_.cases.size() > 1 && number == 1) {
-      AddText(s, "p",
+      AddText(intro, "p",
               fmt::format("Values in the sections are those of case {}; the other cases are "
                           "compared in “Cases compared”.",
                           Base().name),
@@ -807,8 +808,8 @@ class HtmlReport {
     // then the inputs; then the rest in the order of the deck.
     size_t k = 0;
     for (; k < sec.items.size() && sec.items[k].kind == Section::Item::Kind::kNarrative; ++k)
-      Narrative(s, sec.items[k].index);
-    InputsTable(s, sec);
+      Narrative(intro, sec.items[k].index);
+    InputsTable(intro, s, sec);
     std::vector<int> pending_checks;
     auto flush_checks = [&] {
       if (!pending_checks.empty()) ChecksTable(s, pending_checks);
@@ -845,7 +846,9 @@ class HtmlReport {
     Newline(s);
   }
 
-  void InputsTable(xml_node s, const Section& sec) {
+  // A short table goes into `intro` (kept whole with the heading), a long
+  // one into the section `s`.
+  void InputsTable(xml_node intro, xml_node s, const Section& sec) {
     std::vector<int> givens;
     for (const Section::Item& it : sec.items) {
       if (it.kind == Section::Item::Kind::kQuantity &&
@@ -853,6 +856,7 @@ class HtmlReport {
         givens.push_back(it.index);
     }
     if (givens.empty()) return;
+    if (givens.size() <= kKeepWholeRows) s = intro;
     AddText(s, "h3", "Inputs");
     xml_node t = Add(s, "table", "inputs");
     if (givens.size() <= kKeepWholeRows) t.append_attribute("data-keep") = "whole";
