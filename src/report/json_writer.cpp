@@ -149,6 +149,24 @@ std::string WriteJson(const Results& results, const Diagnostics* diags) {
     j["overridden"] = over;
     j["quantities"] = Quantities(m, c);
     j["checks"] = Checks(m, c);
+    ordered_json solves = ordered_json::array();
+    for (size_t i = 0; i < m.solves.size() && i < c.solves.size(); ++i) {
+      const SolveDef& d = m.solves[i];
+      const SolveResult& r = c.solves[i];
+      const Quantity& x = m.quantities[static_cast<size_t>(d.unknown)];
+      ordered_json sj;
+      sj["unknown"] = x.name;
+      sj["converged"] = r.converged;
+      sj["iterations"] = r.iterations;
+      sj["value_si"] = r.converged ? Number(r.value_si) : ordered_json(nullptr);
+      sj["residual_si"] = r.converged ? Number(r.residual_si) : ordered_json(nullptr);
+      sj["bracket_si"] = {Number(d.lo), Number(d.hi)};
+      sj["residual_at_bracket_si"] = {Number(r.residual_lo), Number(r.residual_hi)};
+      sj["line"] = d.stmt->range.line;
+      sj["error"] = r.error.empty() ? ordered_json(nullptr) : ordered_json(r.error);
+      solves.push_back(std::move(sj));
+    }
+    j["solves"] = solves;
     j["failed_checks"] = c.failed_checks;
     cases.push_back(std::move(j));
   }
