@@ -137,6 +137,13 @@ class Writer {
   };
 
   void MakeStyles();
+  // Landscape, one page wide, the header row (if any) repeated on every page.
+  void PrintSetup(lxw_worksheet* ws, lxw_row_t header_row, bool repeat = true) {
+    worksheet_set_landscape(ws);
+    worksheet_fit_to_pages(ws, 1, 0);
+    if (repeat)
+      Check(worksheet_repeat_rows(ws, header_row, header_row), "setting the print titles");
+  }
   void SetProperties();
   void Summary(lxw_worksheet* ws, const std::vector<std::string>& sheets,
                const std::vector<CheckRows>& check_rows);
@@ -448,6 +455,7 @@ Writer::CheckRows Writer::CaseSheet(size_t case_index, lxw_worksheet* ws,
                            "Value",  "Unit",        "Source",     "Warnings and notes"};
   for (lxw_col_t col = 0; col < 8; ++col) Text(ws, 4, col, headers[col], header_);
   worksheet_freeze_panes(ws, kFirstContentRow, 0);
+  PrintSetup(ws, kFirstContentRow - 1);
 
   std::vector<bool> placed_q(m_.quantities.size(), false);
   std::vector<bool> placed_c(m_.checks.size(), false);
@@ -522,6 +530,7 @@ void Writer::Summary(lxw_worksheet* ws, const std::vector<std::string>& sheets,
   worksheet_set_column(ws, 0, 0, 24, nullptr);
   worksheet_set_column(ws, 1, 1, 60, nullptr);
   worksheet_set_column(ws, 2, 6, 14, nullptr);
+  PrintSetup(ws, 0, false);
   lxw_row_t row = 0;
   Text(ws, row++, 0, m_.title.empty() ? r_.deck_path : m_.title, title_);
   ++row;
@@ -593,7 +602,7 @@ void Writer::Summary(lxw_worksheet* ws, const std::vector<std::string>& sheets,
     Text(ws, row, 1, "The deck has no checks", bold_);
   }
   row += 2;
-  worksheet_set_row(ws, row, 48, nullptr);
+  worksheet_set_row(ws, row, 64, nullptr);
   Check(worksheet_merge_range(ws, row, 0, row, 6, report::kSafetyCaution, caution_),
         "writing the caution");
   row += 2;
@@ -640,6 +649,7 @@ void Writer::SweepSheet(const SweepResult& s, lxw_worksheet* ws, const std::stri
   Text(ws, header, static_cast<lxw_col_t>(ncols), "Error", header_);
   worksheet_set_column(ws, 0, static_cast<lxw_col_t>(ncols), 16, nullptr);
   worksheet_freeze_panes(ws, header + 1, 0);
+  PrintSetup(ws, header);
 
   // Rows in an order where the first swept input varies fastest, so that
   // each combination of the other swept inputs is one contiguous series.
