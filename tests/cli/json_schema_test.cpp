@@ -298,8 +298,10 @@ TEST(JsonSchema, EveryGoldenDocumentMatchesTheDocumentedSchema) {
   }
   EXPECT_GE(documents, 10);
   // The golden decks exercise cases, sweeps and failed checks.
-  for (const char* path : {"cases[].overridden[]", "sweeps[].rows[].si_values[]",
-                           "sweeps[].columns[].si_unit", "cases[].checks[].margin_display"}) {
+  for (const char* path :
+       {"cases[].overridden[]", "sweeps[].rows[].si_values[]", "sweeps[].columns[].si_unit",
+        "cases[].checks[].margin_display", "cases[].solves[].value_si",
+        "cases[].quantities[].template_default", "cases[].checks[].template"}) {
     EXPECT_EQ(seen.count(path), 1u) << path;
   }
 }
@@ -410,6 +412,13 @@ TEST(JsonSchema, NumbersReadBackAsTheEvaluatorsDoublesBitForBit) {
         EXPECT_TRUE(ReadsBackAs(checks[k]["margin"], c.checks[k].margin_si));
         EXPECT_TRUE(
             ReadsBackAs(checks[k]["lhs"], m.checks[k].side_unit.FromSi(c.checks[k].lhs_si)));
+      }
+      const json& solves = doc["cases"][ci]["solves"];
+      ASSERT_EQ(solves.size(), c.solves.size());
+      for (size_t k = 0; k < c.solves.size(); ++k) {
+        if (!c.solves[k].converged) continue;
+        EXPECT_TRUE(ReadsBackAs(solves[k]["value_si"], c.solves[k].value_si));
+        EXPECT_TRUE(ReadsBackAs(solves[k]["residual_si"], c.solves[k].residual_si));
       }
     }
   }
