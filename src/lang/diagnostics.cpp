@@ -123,12 +123,19 @@ void AppendQuote(std::string& out, std::string_view line, int col, int last_col,
   out += shown;
   out += '\n';
   out += "  ";
+  // Columns count bytes; a terminal shows characters, so UTF-8
+  // continuation bytes take no place under the line.
+  auto continuation = [](char c) { return (static_cast<unsigned char>(c) & 0xC0) == 0x80; };
   const size_t caret_at = static_cast<size_t>(col - 1) - begin;
-  for (size_t i = 0; i < caret_at && i < shown.size(); ++i) out += shown[i] == '\t' ? '\t' : ' ';
+  for (size_t i = 0; i < caret_at && i < shown.size(); ++i) {
+    if (!continuation(shown[i])) out += shown[i] == '\t' ? '\t' : ' ';
+  }
   if (colour) out += "\x1b[1;32m";
   out += '^';
   const int last = std::max(last_col, col);
-  for (int i = col; i < last && static_cast<size_t>(i) - begin < shown.size(); ++i) out += '~';
+  for (int i = col; i < last && static_cast<size_t>(i) - begin < shown.size(); ++i) {
+    if (!continuation(shown[static_cast<size_t>(i) - begin])) out += '~';
+  }
   if (colour) out += "\x1b[0m";
   out += '\n';
 }

@@ -40,8 +40,14 @@ class Parser {
       ParseStatement();
       if (cur_.kind != TokKind::kNewline && cur_.kind != TokKind::kEof) {
         if (diags_.error_count() == errors_before) {
-          diags_.Error(cur_.range,
-                       fmt::format("unexpected {} at the end of the statement", Describe(cur_)));
+          Diagnostic& d = diags_.Error(
+              cur_.range, fmt::format("unexpected {} at the end of the statement", Describe(cur_)));
+          if (prev_.kind == TokKind::kNumber && prev_.unit == "in") {
+            d.notes.push_back(fmt::format(
+                "right after a number, 'in' is the inch; to show the result in {0}, end the "
+                "expression with a name or a parenthesis: (… {1}) in {0}",
+                cur_.text, prev_.text));
+          }
         }
         SkipStatement();
       }
@@ -50,7 +56,10 @@ class Parser {
   }
 
  private:
-  void Advance() { cur_ = lex_.Next(); }
+  void Advance() {
+    prev_ = std::move(cur_);
+    cur_ = lex_.Next();
+  }
 
   void SkipStatement() {
     while (cur_.kind != TokKind::kNewline && cur_.kind != TokKind::kEof) Advance();
@@ -719,6 +728,7 @@ class Parser {
   const ParseLimits& limits_;
   Deck deck_;
   Token cur_;
+  Token prev_;  // the token before cur_, for hints
   int depth_ = 0;
   std::vector<int> depth_of_;  // tree depth per expression id
   bool too_deep_reported_ = false;

@@ -771,7 +771,7 @@ class Builder {
       if (x == TK::kAbsolute && y == TK::kAbsolute) {
         diags_.Error(e->range,
                      "cannot add two absolute temperatures; for a mean write "
-                     "T_a + (T_b - T_a)/2");
+                     "T_a + 0.5 * (T_b - T_a)");
         *bad = true;
       } else if (x == TK::kAbsolute || y == TK::kAbsolute) {
         t.temp = TK::kAbsolute;

@@ -336,7 +336,7 @@ TEST(Checker, AbsolutePlusAbsoluteIsAnError) {
                    "given T2 = 20 degC\n"
                    "x = T1 + T2\n"),
             "input:3:5: error: cannot add two absolute temperatures; for a mean write "
-            "T_a + (T_b - T_a)/2\n"
+            "T_a + 0.5 * (T_b - T_a)\n"
             "  x = T1 + T2\n"
             "      ^~~~~~~\n");
 }
@@ -518,7 +518,7 @@ TEST(Checker, EveryErrorOfADeckInOneRun) {
             "  given L = 3 furlong\n"
             "              ^~~~~~~\n"
             "input:7:6: error: cannot add two absolute temperatures; for a mean write "
-            "T_a + (T_b - T_a)/2\n"
+            "T_a + 0.5 * (T_b - T_a)\n"
             "  T2 = T1 + T1\n"
             "       ^~~~~~~\n"
             "input:8:7: error: unterminated string: missing closing '\"'\n"
