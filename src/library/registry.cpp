@@ -23,8 +23,8 @@ const std::vector<FunctionInfo>& Functions() {
 
 const FunctionInfo* FindFunction(std::string_view name) {
   const auto& all = Functions();
-  auto it = std::find_if(all.begin(), all.end(),
-                         [&](const FunctionInfo& f) { return name == f.name; });
+  auto it =
+      std::find_if(all.begin(), all.end(), [&](const FunctionInfo& f) { return name == f.name; });
   return it == all.end() ? nullptr : &*it;
 }
 

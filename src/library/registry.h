@@ -51,14 +51,16 @@ struct ArgSpec {
 
 struct FunctionInfo {
   const char* name;    // "res_cyl"
-  const char* family;  // "resistance", "fins", "mtd", "entu", "convection", "friction", "water", "air", "groups"
+  const char* family;  // "resistance", "fins", "mtd", "entu", "convection", "friction", "water",
+                       // "air", "groups"
   std::vector<ArgSpec> args;
   units::Dimension result;
   units::TempKind result_kind = units::TempKind::kNone;
   const char* formula;   // plain-text formula for reports: "ln(D_out/D_in)/(2*pi*k*L)"
   const char* source;    // published source of the method
   const char* validity;  // validity range, and what happens outside it (error / warning)
-  const char* example;   // a one-line deck example: "R_w = res_cyl(25.4 mm, 28.6 mm, 16 W/(m*K), 6 m)"
+  const char*
+      example;  // a one-line deck example: "R_w = res_cyl(25.4 mm, 28.6 mm, 16 W/(m*K), 6 m)"
   // Spreadsheet formula (Excel / OpenFormula function names) with {0}, {1}, …
   // standing for the SI arguments, or nullptr where no closed form exists
   // (iterative solves, series, IAPWS).  The workbook writer substitutes

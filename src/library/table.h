@@ -12,9 +12,9 @@
 namespace heatdeck::library {
 
 struct TableColumn {
-  std::string name;       // "cp"
-  units::Unit unit;       // parsed from the header's [unit]
-  std::vector<double> si; // values converted to SI, one per data row
+  std::string name;        // "cp"
+  units::Unit unit;        // parsed from the header's [unit]
+  std::vector<double> si;  // values converted to SI, one per data row
 };
 
 struct Table {

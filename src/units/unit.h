@@ -13,7 +13,7 @@ namespace heatdeck::units {
 // A parsed unit expression such as "kJ/(kg*K)" or "degC".
 // SI value = value * factor + offset.
 struct Unit {
-  std::string text;     // canonical ASCII spelling ("degC" for "°C", "um" kept as written)
+  std::string text;  // canonical ASCII spelling ("degC" for "°C", "um" kept as written)
   Dimension dim;
   double factor = 1.0;
   double offset = 0.0;  // non-zero only for absolute degC / degF (and never inside compounds)
@@ -64,13 +64,13 @@ bool ParseUnit(std::string_view text, Unit* out, UnitError* error);
 
 // One registry entry, for `heatdeck units`.
 struct UnitListing {
-  std::string symbol;    // "kW", "degC"
-  std::string name;      // "kilowatt"
-  std::string si_unit;   // "W"
+  std::string symbol;   // "kW", "degC"
+  std::string name;     // "kilowatt"
+  std::string si_unit;  // "W"
   double factor = 1.0;
   double offset = 0.0;
   bool prefixable = false;  // takes SI prefixes
-  std::string note;      // "absolute temperature; an interval inside compound units"
+  std::string note;         // "absolute temperature; an interval inside compound units"
 };
 // Every base symbol of the registry (prefixed forms are not expanded), in a
 // stable order grouped by dimension.
