@@ -4,7 +4,12 @@
 set -euo pipefail
 cd "$(dirname "$0")/.."
 tools/install-deps.sh
-cmake -S . -B build -DCMAKE_BUILD_TYPE=Release -DHEATDECK_TESTS=OFF >/dev/null
-cmake --build build -j"$(nproc)" --target heatdeck >/dev/null
-deck=${1:-examples/jacket_water_cooler.deck}
+log=$(mktemp)
+if ! { cmake -S . -B build -DCMAKE_BUILD_TYPE=Release -DHEATDECK_TESTS=OFF &&
+       cmake --build build -j"$(nproc)" --target heatdeck; } >"$log" 2>&1; then
+  cat "$log"
+  exit 1
+fi
+rm -f "$log"
+deck=${1:-examples/trim_cooler.deck}
 ./build/heatdeck run "$deck" -o out -f html,md,xlsx,json
