@@ -199,7 +199,6 @@ std::string Dump(const Deck& deck) {
 }  // namespace heatdeck
 
 namespace heatdeck {
-namespace {
 
 int Precedence(ExprKind k) {
   switch (k) {
@@ -230,8 +229,6 @@ int Precedence(ExprKind k) {
       return 9;
   }
 }
-
-}  // namespace
 
 std::string Pretty(const Expr& e, const std::function<std::string(const Expr&)>& leaf) {
   if (leaf) {

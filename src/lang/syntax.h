@@ -38,6 +38,8 @@ enum class ExprKind {
 // Source spelling of an operator kind ("+", "<=", "and").
 const char* OperatorText(ExprKind k);
 bool IsComparison(ExprKind k);
+// Binding strength of an operator, 1 (or) … 8 (^); 9 for leaves and calls.
+int Precedence(ExprKind k);
 bool IsLogical(ExprKind k);  // and, or, not
 
 struct Expr {

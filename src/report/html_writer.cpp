@@ -257,34 +257,9 @@ std::string PlotAxisLabel(std::string_view name, const std::string& unit) {
 
 // ---- MathML ------------------------------------------------------------------
 
-int Precedence(ExprKind k) {
-  switch (k) {
-    case ExprKind::kOr:
-      return 1;
-    case ExprKind::kAnd:
-      return 2;
-    case ExprKind::kNot:
-      return 3;
-    case ExprKind::kLt:
-    case ExprKind::kLe:
-    case ExprKind::kGt:
-    case ExprKind::kGe:
-    case ExprKind::kEq:
-    case ExprKind::kNe:
-      return 4;
-    case ExprKind::kAdd:
-    case ExprKind::kSub:
-      return 5;
-    case ExprKind::kMul:
-      return 6;
-    case ExprKind::kNeg:
-      return 7;
-    case ExprKind::kPow:
-      return 8;
-    default:
-      return 9;  // leaves, calls, and fractions (drawn as one block)
-  }
-}
+// As the language's precedence, except that a fraction is drawn as one
+// block and so never needs parentheses around it.
+int MathPrecedence(ExprKind k) { return k == ExprKind::kDiv ? 9 : Precedence(k); }
 
 // <math> in display style, so that fractions keep full-size text.
 xml_node MathElement(xml_node parent) {
@@ -318,11 +293,11 @@ class MathWriter {
         return;
       case ExprKind::kNeg:
         Op(row, "−");
-        Child(row, *e.args[0], Precedence(ExprKind::kNeg), true, true);
+        Child(row, *e.args[0], MathPrecedence(ExprKind::kNeg), true, true);
         return;
       case ExprKind::kNot:
         Op(row, "not");
-        Child(row, *e.args[0], Precedence(ExprKind::kNot), true, true);
+        Child(row, *e.args[0], MathPrecedence(ExprKind::kNot), true, true);
         return;
       case ExprKind::kDiv: {
         xml_node frac = Add(row, "mfrac");
@@ -333,12 +308,12 @@ class MathWriter {
       case ExprKind::kPow: {
         xml_node sup = Add(row, "msup");
         xml_node base = Add(sup, "mrow");
-        Child(base, *e.args[0], Precedence(ExprKind::kPow), true, false);
+        Child(base, *e.args[0], MathPrecedence(ExprKind::kPow), true, false);
         Node(Add(sup, "mrow"), *e.args[1]);
         return;
       }
       default: {
-        const int p = Precedence(e.kind);
+        const int p = MathPrecedence(e.kind);
         Child(row, *e.args[0], p, false, false);
         const char* sign = e.kind == ExprKind::kMul   ? "·"
                            : e.kind == ExprKind::kAnd ? "and"
@@ -367,7 +342,7 @@ class MathWriter {
 
   // Whether a child needs parentheses under a parent of precedence p.
   static bool NeedsParens(const heatdeck::Expr& c, int p, bool strict) {
-    const int pc = Precedence(c.kind);
+    const int pc = MathPrecedence(c.kind);
     return pc < p || (strict && pc == p && p < 9);
   }
 
@@ -392,10 +367,10 @@ class MathWriter {
     const int q = it->second.quantity;
     const std::string v = QuantityValueText(m_, *c_, q);
     const std::string& u = m_.quantities[static_cast<size_t>(q)].display.text;
-    const bool factor = p >= Precedence(ExprKind::kMul) && p < 9;
+    const bool factor = p >= MathPrecedence(ExprKind::kMul) && p < 9;
     const bool negative = !v.empty() && v[0] == '-';
     // A power's base with any unit: (22 mm)², not 22 mm².
-    const bool power_base = p == Precedence(ExprKind::kPow) && !right;
+    const bool power_base = p == MathPrecedence(ExprKind::kPow) && !right;
     return (factor && (negative || u.find_first_of("*/^") != std::string::npos)) ||
            (power_base && !u.empty()) || (negative && right);
   }
