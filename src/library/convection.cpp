@@ -1,5 +1,6 @@
 // Family 'convection' of the heat-transfer library (LIBRARY.md).
 #include "library/convection.h"
+#include "library/fail.h"
 
 #include <fmt/format.h>
 
@@ -12,7 +13,8 @@ namespace {
 
 namespace dim = units::dim;
 
-constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
+using detail::Fail;
+using detail::kNaN;
 
 constexpr const char* kDittusBoelter =
     "Dittus & Boelter 1930; validity as given by Incropera et al.";
@@ -26,13 +28,6 @@ constexpr const char* kChurchillChu = "Churchill & Chu 1975";
 // Laminar and turbulent ends of the nu_tube transition (LIBRARY.md).
 constexpr double kReLaminar = 2300.0;
 constexpr double kReTurbulent = 10000.0;
-
-// Error path only (may allocate).
-template <typename... Args>
-double Fail(Sink& sink, fmt::format_string<Args...> f, Args&&... args) {
-  sink.Error(fmt::format(f, std::forward<Args>(args)...));
-  return kNaN;
-}
 
 template <typename... Args>
 void Warn(Sink& sink, fmt::format_string<Args...> f, Args&&... args) {

@@ -1,5 +1,6 @@
 // Family 'fins' of the heat-transfer library (LIBRARY.md).
 #include "library/fins.h"
+#include "library/fail.h"
 
 #include <fmt/format.h>
 
@@ -13,14 +14,8 @@ namespace {
 
 namespace dim = units::dim;
 
-constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
-
-// Error path only (may allocate).
-template <typename... Args>
-double Fail(Sink& sink, fmt::format_string<Args...> f, Args&&... args) {
-  sink.Error(fmt::format(f, std::forward<Args>(args)...));
-  return kNaN;
-}
+using detail::Fail;
+using detail::kNaN;
 
 // tanh(x)/x for x >= 0.  Below 1e-4 the Taylor series 1 - x^2/3 + 2x^4/15
 // (next term 17x^6/315 < 1e-25) gives the limit 1 at x = 0 without 0/0.

@@ -1,5 +1,6 @@
 // Family 'friction' of the heat-transfer library (LIBRARY.md).
 #include "library/friction.h"
+#include "library/fail.h"
 
 #include <fmt/format.h>
 
@@ -13,14 +14,8 @@ namespace {
 
 namespace dim = units::dim;
 
-constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
-
-// Error path only (may allocate).
-template <typename... Args>
-double Fail(Sink& sink, fmt::format_string<Args...> f, Args&&... args) {
-  sink.Error(fmt::format(f, std::forward<Args>(args)...));
-  return kNaN;
-}
+using detail::Fail;
+using detail::kNaN;
 
 template <typename... Args>
 void Warn(Sink& sink, fmt::format_string<Args...> f, Args&&... args) {
