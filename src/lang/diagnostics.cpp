@@ -114,7 +114,9 @@ void AppendQuote(std::string& out, std::string_view line, int col, int last_col,
   std::string_view shown = line;
   const size_t kMax = 200;
   if (line.size() > kMax && static_cast<size_t>(col) > kMax / 2) {
-    begin = static_cast<size_t>(col) - kMax / 2;
+    // Centred on the column, but never past the line's last kMax bytes (a
+    // column may point just past the end of its line).
+    begin = std::min(static_cast<size_t>(col) - kMax / 2, line.size() - kMax);
     shown = line.substr(begin, kMax);
   } else if (line.size() > kMax) {
     shown = line.substr(0, kMax);

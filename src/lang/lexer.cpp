@@ -287,8 +287,12 @@ Token Lexer::Next() {
       if (p < src_.size() && src_[p] == '#') {
         while (p < src_.size() && src_[p] != '\n') ++p;
       }
-      if (p >= src_.size() || src_[p] == '\n') {
-        pos_ = p < src_.size() ? p + 1 : p;
+      if (p >= src_.size()) {
+        pos_ = p;  // at the end of a file without a last newline: no next line
+        continue;
+      }
+      if (src_[p] == '\n') {
+        pos_ = p + 1;
         ++line_;
         line_start_ = pos_;
         continue;
@@ -358,6 +362,14 @@ Token Lexer::Next() {
       else if (u >= 0xC0)
         len = 2;
       len = std::min(len, src_.size() - pos_);
+      // Only continuation bytes belong to it: a broken sequence must not
+      // swallow the newline (or anything else) that follows its lead byte.
+      for (size_t k = 1; k < len; ++k) {
+        if ((static_cast<unsigned char>(src_[pos_ + k]) & 0xC0) != 0x80) {
+          len = k;
+          break;
+        }
+      }
       std::string_view ch = src_.substr(pos_, len);
       pos_ += len;
       std::string hint;

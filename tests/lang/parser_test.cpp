@@ -134,6 +134,30 @@ TEST(Parser, UnterminatedStringAndBadUtf8) {
   EXPECT_NE(errors.find("input:1:9: error: invalid UTF-8 byte 0xFF"), std::string::npos) << errors;
 }
 
+// Found by fuzz_deck: a broken UTF-8 lead byte just before a newline took
+// the newline into its "character", so every later line was counted as
+// line 1 and carets pointed past the end of the quoted line.
+TEST(Parser, BrokenUtf8LeadByteKeepsTheLineCount) {
+  std::string errors;
+  DumpOf("x = 1 \xE8\ny = 2 $\n", &errors);
+  EXPECT_NE(errors.find("input:2:7: error: unexpected character '$'"), std::string::npos) << errors;
+}
+
+// Found by fuzz_deck: a column past the end of a line longer than the
+// 200-byte quote window threw std::out_of_range from the renderer.
+TEST(Parser, CaretPastTheEndOfALongLine) {
+  SourceFiles files;
+  const std::string_view name = files.Add("input", std::string(250, 'a') + "\n");
+  Diagnostic d;
+  d.severity = Severity::kError;
+  d.range = SourceRange{name, 1, 340, 340};
+  d.message = "somewhere";
+  const std::string text = Render(d, files, false);
+  EXPECT_NE(text.find("input:1:340: error: somewhere\n  " + std::string(200, 'a') + "\n"),
+            std::string::npos)
+      << text;
+}
+
 TEST(Parser, HugeNumberIsAnError) {
   std::string errors;
   DumpOf("given x = 1e400 m", &errors);
