@@ -276,6 +276,11 @@ std::vector<std::string> SuggestUnits(std::string_view text) {
   std::vector<Scored> scored;
   const std::vector<Candidate>& candidates = SuggestionCandidates();
   for (size_t i = 0; i < candidates.size(); ++i) {
+    // The distance is at least the difference in length: most candidates
+    // are ruled out without filling a table.
+    const size_t len = candidates[i].symbol.size();
+    const size_t gap = len > norm.size() ? len - norm.size() : norm.size() - len;
+    if (gap > static_cast<size_t>(max_distance)) continue;
     const int folded = EditDistance(norm, candidates[i].symbol, true);
     if (folded > max_distance) continue;
     scored.push_back(
