@@ -131,6 +131,21 @@ else
   reps=3
 fi
 cols=(--columns "Q,T_h2,T_c2")
+# The loop's base case against the table in the benchmark's README.
+base_ok=0
+base="no $shared/bench/README.md"
+if [[ -r $shared/bench/README.md ]]; then
+  "$bin/b1_hand" --base >"$work/base.txt"
+  base=$(awk '
+    FILENAME == ARGV[1] { v[$1] = $2; next }
+    /^\|/ {
+      split($0, c, "|"); name = c[2]; gsub(/ /, "", name); split(c[3], w, " ")
+      if (name in v) { n++; x = w[1] + 0; r = (v[name] - x) / x; if (r < 0) r = -r; if (r > m) m = r }
+    }
+    END { printf "%d values, largest relative difference %.3g", n, m; exit !(n == 11 && m <= 1e-9) }
+  ' "$work/base.txt" "$shared/bench/README.md") && base_ok=1
+fi
+echo "  hand loop's base case vs the README's table: $base"
 hand=$(timed $reps "hand loop (b1_hand, -O2)" -- "$bin/b1_hand" "${hand_args[@]}")
 hd1=$(timed $reps "heatdeck -j 1" -- "$hd" run "$deck" -f csv -o "$work/j1" -j 1 "${cols[@]}")
 hdn=$(timed $reps "heatdeck -j $jobs" -- "$hd" run "$deck" -f csv -o "$work/jn" -j "$jobs" "${cols[@]}")
@@ -142,6 +157,7 @@ t_1=$(field "$hd1" wall_median)
 t_n=$(field "$hdn" wall_median)
 printf '  %d points; points/s (wall): hand %s, heatdeck -j 1 %s, heatdeck -j %d %s\n' "$points" \
   "$(calc "$points / $t_hand")" "$(calc "$points / $t_1")" "$jobs" "$(calc "$points / $t_n")"
+echo "  for information, by process time (cpu) instead of wall: -j 1 vs hand $(calc "$(field "$hand" cpu_median) / $(field "$hd1" cpu_median)")"
 agree=$("$bin/csv_compare" "$work/hand.csv" "$csv1" 1e-9) && agree_ok=1 || agree_ok=0
 echo "  hand vs -j 1:   $agree"
 if cmp -s "$csv1" "$csvn"; then
@@ -152,6 +168,7 @@ else
   echo "  -j 1 vs -j $jobs: $("$bin/csv_compare" "$csv1" "$csvn" 0 || true)"
 fi
 verdict "P1 results agree with the hand loop" "$(sed -n 's/.*largest relative difference \([^ ]*\).*/max rel diff \1/p' <<<"$agree")" "<= 1e-9" "$agree_ok"
+verdict "P1 hand loop's base case vs README table" "max rel diff ${base##*difference }" "<= 1e-9" "$base_ok"
 verdict "P1 -j 1 and -j $jobs give the same CSV" "$( ((same_ok)) && echo identical || echo differ)" "byte-identical" "$same_ok"
 
 echo
@@ -162,7 +179,6 @@ echo "  /usr/bin/time -f %M, default jobs ($jobs): ${rss_default} KiB; -j 1 runs
 if ((!smoke)); then
   r1=$(calc "$t_hand / $t_1")
   rn=$(calc "$t_1 / $t_n")
-  echo "  for information, by process time (cpu) instead of wall: -j 1 vs hand $(calc "$(field "$hand" cpu_median) / $(field "$hd1" cpu_median)")"
   verdict "P1 heatdeck -j 1 vs hand loop (points/s)" "ratio $r1" ">= 0.8" "$(holds "$r1 >= 0.8")"
   verdict "P1 heatdeck -j $jobs vs -j 1 (points/s)" "ratio $rn" ">= 1.5" "$(holds "$rn >= 1.5")"
   # 100 MB = 100e6 bytes = 97656 KiB.
