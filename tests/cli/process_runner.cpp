@@ -6,12 +6,15 @@
 
 #include <algorithm>
 #include <cerrno>
+#include <chrono>
+#include <csignal>
 #include <cstdio>
 #include <cstdlib>
 #include <filesystem>
 #include <fstream>
 #include <sstream>
 #include <stdexcept>
+#include <thread>
 
 extern char** environ;
 
@@ -38,7 +41,8 @@ std::string MakeTemp(const std::string& pattern, int* fd) {
 
 }  // namespace
 
-ProcessResult RunHeatdeck(const std::vector<std::string>& args, const std::string& cwd) {
+ProcessResult RunHeatdeck(const std::vector<std::string>& args, const std::string& cwd,
+                          double timeout_seconds) {
   int out_fd = -1, err_fd = -1;
   const std::string out_path = MakeTemp("hd-out-XXXXXX", &out_fd);
   const std::string err_path = MakeTemp("hd-err-XXXXXX", &err_fd);
@@ -72,11 +76,36 @@ ProcessResult RunHeatdeck(const std::vector<std::string>& args, const std::strin
   }
   close(out_fd);
   close(err_fd);
-  int wstatus = 0;
-  while (waitpid(pid, &wstatus, 0) < 0) {
-    if (errno != EINTR) throw std::runtime_error("waitpid failed");
-  }
   ProcessResult r;
+  int wstatus = 0;
+  if (timeout_seconds > 0) {
+    // Poll, so that a child past its time can be killed; the poll interval
+    // grows to 20 ms, short against any time limit a test would set.
+    const auto deadline = std::chrono::steady_clock::now() +
+                          std::chrono::duration_cast<std::chrono::steady_clock::duration>(
+                              std::chrono::duration<double>(timeout_seconds));
+    auto pause = std::chrono::microseconds(200);
+    for (;;) {
+      const pid_t done = waitpid(pid, &wstatus, WNOHANG);
+      if (done == pid) break;
+      if (done < 0 && errno != EINTR) throw std::runtime_error("waitpid failed");
+      if (std::chrono::steady_clock::now() >= deadline) {
+        kill(pid, SIGKILL);
+        while (waitpid(pid, &wstatus, 0) < 0) {
+          if (errno != EINTR) throw std::runtime_error("waitpid failed");
+        }
+        // It may have ended by itself just before the kill.
+        r.timed_out = WIFSIGNALED(wstatus) && WTERMSIG(wstatus) == SIGKILL;
+        break;
+      }
+      std::this_thread::sleep_for(pause);
+      pause = std::min(pause * 2, std::chrono::microseconds(20000));
+    }
+  } else {
+    while (waitpid(pid, &wstatus, 0) < 0) {
+      if (errno != EINTR) throw std::runtime_error("waitpid failed");
+    }
+  }
   if (WIFEXITED(wstatus)) {
     r.status = WEXITSTATUS(wstatus);
   } else if (WIFSIGNALED(wstatus)) {

@@ -12,14 +12,20 @@ struct ProcessResult {
   // by a signal (a crash shows as 134 or 139, never as 0..3).
   int status = -1;
   bool signalled = false;
+  // True when the child ran past the time limit given to RunHeatdeck and
+  // was killed (then signalled is true and status is 128 + SIGKILL).
+  bool timed_out = false;
   std::string out;  // standard output, bytes as written
   std::string err;  // standard error
 };
 
 // Runs HD_BINARY with args (without the program name) in the folder cwd, with
 // NO_COLOR set and standard input closed.  Output goes to temporary files,
-// so a child that writes megabytes cannot block on a full pipe.
-ProcessResult RunHeatdeck(const std::vector<std::string>& args, const std::string& cwd);
+// so a child that writes megabytes cannot block on a full pipe.  With a
+// timeout_seconds above 0, a child still running after that long is killed
+// and reported with timed_out set; a test treats that as a failure.
+ProcessResult RunHeatdeck(const std::vector<std::string>& args, const std::string& cwd,
+                          double timeout_seconds = 0);
 
 // A fresh empty folder under the system's temporary folder; removed, with
 // what is in it, when the object goes.
