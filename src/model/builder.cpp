@@ -44,6 +44,12 @@ std::string NearestName(const std::string& word, const std::vector<std::string>&
 
 namespace {
 
+// A number of sweep points as a count: in full while a double holds it
+// exactly ("100", not "100.000"), in scientific notation beyond.
+std::string PointCount(double n) {
+  return n < 1e15 ? fmt::format("{:.0f}", n) : units::FormatSig(n, 6);
+}
+
 const char* TempWord(TempKind k) {
   switch (k) {
     case TempKind::kAbsolute:
@@ -1279,10 +1285,9 @@ class Builder {
       // LANGUAGE.md: A + k*S for k = 0 … n, n = floor((B - A)/S + 1e-9).
       const double n = std::floor(span + 1e-9);
       if (n + 1 > static_cast<double>(options_.max_sweep_points)) {
-        diags_.Error(s.range,
-                     fmt::format("the sweep of '{}' has {} points, over the limit of {} "
-                                 "(raise it with --max-points)",
-                                 q.name, units::FormatSig(n + 1, 6), options_.max_sweep_points));
+        diags_.Error(s.range, fmt::format("the sweep of '{}' has {} points, over the limit of {} "
+                                          "(raise it with --max-points)",
+                                          q.name, PointCount(n + 1), options_.max_sweep_points));
         return;
       }
       const long count = static_cast<long>(n) + 1;
@@ -1306,7 +1311,7 @@ class Builder {
     if (total > static_cast<double>(options_.max_sweep_points)) {
       diags_.Error(s.range, fmt::format("the sweep grid has {} points, over the limit of {} "
                                         "(raise it with --max-points)",
-                                        units::FormatSig(total, 6), options_.max_sweep_points));
+                                        PointCount(total), options_.max_sweep_points));
       return;
     }
     model_->sweeps.push_back(std::move(d));
