@@ -5,9 +5,10 @@
 #
 #   tools/refresh-golden.sh [PATH/TO/heatdeck]
 #
-# For each tests/cli/golden/NAME.deck (run inside tests/cli/golden) and each
-# examples/NAME.deck (run from the repository root, expected files in
-# tests/cli/golden/examples/) it runs `heatdeck run DECK -f json -o -` and
+# For each tests/cli/golden/NAME.deck (run inside tests/cli/golden), each
+# tests/cli/golden/mutated/NAME.deck (run inside that folder; the decks are
+# written by tools/mutate-examples.py) and each examples/NAME.deck (run from
+# the repository root, expected files in tests/cli/golden/examples/) it runs `heatdeck run DECK -f json -o -` and
 # writes NAME.stderr, NAME.status and, when the deck evaluated (status 0 or
 # 1), NAME.json.  The command line matches tests/cli/golden_test.cpp.
 set -euo pipefail
@@ -43,6 +44,11 @@ golden="$repo/tests/cli/golden"
 for deck in "$golden"/*.deck; do
   name="$(basename "$deck" .deck)"
   run_one "$golden" "$name.deck" "$golden/$name"
+done
+for deck in "$golden"/mutated/*.deck; do
+  [[ -e "$deck" ]] || continue
+  name="$(basename "$deck" .deck)"
+  run_one "$golden/mutated" "$name.deck" "$golden/mutated/$name"
 done
 mkdir -p "$golden/examples"
 for deck in "$repo"/examples/*.deck; do

@@ -9,6 +9,12 @@
 // text: at least one `FILE:LINE:COL: error:` line followed by that source
 // line and a caret, nothing on standard output, and `run -o DIR` writes
 // nothing into DIR.
+//
+// Besides the hand-written decks, tests/cli/golden/mutated/ holds decks
+// that tools/mutate-examples.py derived from examples/ by breaking them in
+// typical ways; they are run the same way from that folder.  Every run has
+// a time limit: a deck that hangs the process fails instead of stalling the
+// suite.
 #include <algorithm>
 #include <cstdlib>
 #include <filesystem>
@@ -41,25 +47,36 @@ struct GoldenCase {
 void PrintTo(const GoldenCase& g, std::ostream* os) { *os << g.deck; }
 
 std::string GoldenDir() { return RepoDir() + "/tests/cli/golden"; }
+std::string MutatedDir() { return GoldenDir() + "/mutated"; }
 
-std::vector<GoldenCase> AllCases() {
-  std::vector<GoldenCase> cases;
+// Generous: CI also runs this suite under ASan and UBSan on two cores; a
+// deck normally takes well under a second.
+constexpr double kDeckTimeout = 20;
+
+// The decks of dir, sorted by name.
+std::vector<fs::path> DecksIn(const std::string& dir) {
   std::vector<fs::path> decks;
-  for (const auto& e : fs::directory_iterator(GoldenDir())) {
+  if (!fs::is_directory(dir)) return decks;
+  for (const auto& e : fs::directory_iterator(dir)) {
     if (e.path().extension() == ".deck") decks.push_back(e.path());
   }
   std::sort(decks.begin(), decks.end());
-  for (const fs::path& p : decks) {
+  return decks;
+}
+
+std::vector<GoldenCase> AllCases() {
+  std::vector<GoldenCase> cases;
+  for (const fs::path& p : DecksIn(GoldenDir())) {
     const std::string stem = p.stem().string();
     cases.push_back(
         GoldenCase{stem, GoldenDir(), stem + ".deck", (fs::path(GoldenDir()) / stem).string()});
   }
-  std::vector<fs::path> examples;
-  for (const auto& e : fs::directory_iterator(RepoDir() + "/examples")) {
-    if (e.path().extension() == ".deck") examples.push_back(e.path());
+  for (const fs::path& p : DecksIn(MutatedDir())) {
+    const std::string stem = p.stem().string();
+    cases.push_back(GoldenCase{"mutated_" + stem, MutatedDir(), stem + ".deck",
+                               (fs::path(MutatedDir()) / stem).string()});
   }
-  std::sort(examples.begin(), examples.end());
-  for (const fs::path& p : examples) {
+  for (const fs::path& p : DecksIn(RepoDir() + "/examples")) {
     const std::string stem = p.stem().string();
     cases.push_back(GoldenCase{"examples_" + stem, RepoDir(), "examples/" + stem + ".deck",
                                (fs::path(GoldenDir()) / "examples" / stem).string()});
@@ -107,7 +124,9 @@ TEST_P(Golden, MatchesExpectedOutput) {
   const std::string want_err = ReadFile(g.expected + ".stderr");
   const bool has_json = fs::exists(g.expected + ".json");
 
-  const ProcessResult r = RunHeatdeck({"run", g.deck, "-f", "json", "-o", "-"}, g.cwd);
+  const ProcessResult r =
+      RunHeatdeck({"run", g.deck, "-f", "json", "-o", "-"}, g.cwd, kDeckTimeout);
+  ASSERT_FALSE(r.timed_out) << g.deck << " ran longer than " << kDeckTimeout << " s";
   ASSERT_FALSE(r.signalled) << g.deck << " crashed the process (status " << r.status << ")\n"
                             << r.err;
   EXPECT_EQ(r.status, want_status) << r.err;
@@ -124,7 +143,8 @@ TEST_P(GoldenWithErrors, IsLocatedAndWritesNothing) {
   const GoldenCase& g = GetParam();
   const std::string source = ReadFile((fs::path(g.cwd) / g.deck).string());
 
-  const ProcessResult check = RunHeatdeck({"check", g.deck}, g.cwd);
+  const ProcessResult check = RunHeatdeck({"check", g.deck}, g.cwd, kDeckTimeout);
+  ASSERT_FALSE(check.timed_out) << g.deck << " ran longer than " << kDeckTimeout << " s";
   ASSERT_FALSE(check.signalled) << check.err;
   EXPECT_EQ(check.status, 2);
   std::string why;
@@ -134,7 +154,8 @@ TEST_P(GoldenWithErrors, IsLocatedAndWritesNothing) {
       << "check prints one summary line with the error count, got: " << check.out;
 
   TempDir out;
-  const ProcessResult run = RunHeatdeck({"run", g.deck, "-o", out.path()}, g.cwd);
+  const ProcessResult run = RunHeatdeck({"run", g.deck, "-o", out.path()}, g.cwd, kDeckTimeout);
+  ASSERT_FALSE(run.timed_out) << g.deck << " ran longer than " << kDeckTimeout << " s";
   ASSERT_FALSE(run.signalled) << run.err;
   EXPECT_EQ(run.status, 2);
   EXPECT_TRUE(HasLocatedError(run.err, g.deck, source, &why)) << why << "\n" << run.err;
@@ -147,7 +168,8 @@ TEST_P(GoldenWithErrors, IsLocatedAndWritesNothing) {
 TEST_P(GoldenEvaluated, WritesItsReports) {
   const GoldenCase& g = GetParam();
   TempDir out;
-  const ProcessResult r = RunHeatdeck({"run", g.deck, "-o", out.path()}, g.cwd);
+  const ProcessResult r = RunHeatdeck({"run", g.deck, "-o", out.path()}, g.cwd, kDeckTimeout);
+  ASSERT_FALSE(r.timed_out) << g.deck << " ran longer than " << kDeckTimeout << " s";
   ASSERT_FALSE(r.signalled) << r.err;
   EXPECT_EQ(r.status, ReadStatus(g.expected + ".status")) << r.err;
   const std::string stem = fs::path(g.deck).stem().string();
@@ -183,11 +205,27 @@ TEST(GoldenFolder, FiveMistakesAreAllReportedInOneRun) {
 // The golden folder keeps its promise: enough malformed decks, and every
 // deck has its expected files (an orphaned expected file is a deck that was
 // renamed or removed without refreshing).
-TEST(GoldenFolder, HoldsAtLeastFortyMalformedDecks) { EXPECT_GE(CasesWithStatus(2).size(), 40u); }
+TEST(GoldenFolder, HoldsAtLeastTwoHundredMalformedDecks) {
+  EXPECT_GE(CasesWithStatus(2).size(), 200u);
+}
+
+// The mutated corpus is there and mostly broken: a mutation that leaves a
+// valid deck is allowed, but a corpus of valid decks would test little.
+TEST(GoldenFolder, MutatedCorpusIsMostlyMalformed) {
+  size_t decks = 0, malformed = 0;
+  for (const fs::path& p : DecksIn(MutatedDir())) {
+    ++decks;
+    const fs::path status = fs::path(MutatedDir()) / (p.stem().string() + ".status");
+    if (fs::exists(status) && ReadStatus(status.string()) == 2) ++malformed;
+  }
+  EXPECT_GE(decks, 140u) << "run tools/mutate-examples.py, then tools/refresh-golden.sh";
+  EXPECT_GE(malformed * 4, decks * 3)
+      << malformed << " of " << decks << " mutated decks have errors";
+}
 
 TEST(GoldenFolder, EveryExpectedFileBelongsToADeck) {
-  for (const std::string& dir : {GoldenDir(), GoldenDir() + "/examples"}) {
-    const std::string deck_dir = dir == GoldenDir() ? dir : RepoDir() + "/examples";
+  for (const std::string& dir : {GoldenDir(), MutatedDir(), GoldenDir() + "/examples"}) {
+    const std::string deck_dir = dir == GoldenDir() + "/examples" ? RepoDir() + "/examples" : dir;
     for (const auto& e : fs::directory_iterator(dir)) {
       const std::string ext = e.path().extension().string();
       if (ext != ".stderr" && ext != ".json" && ext != ".status") continue;
