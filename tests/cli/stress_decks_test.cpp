@@ -2,9 +2,11 @@
 // parentheses, lines of a megabyte.  They are written to a temporary folder
 // and run there.  A deck with errors must give exit status 2, a located
 // diagnostic and no output file; whatever the input, the process must end
-// by itself, never by a signal.
+// by itself, never by a signal, and within a time limit.
 #include <fstream>
+#include <iterator>
 #include <string>
+#include <vector>
 
 #include <gtest/gtest.h>
 
@@ -15,6 +17,8 @@ namespace heatdeck::testing {
 namespace {
 
 constexpr size_t kMegabyte = 1u << 20;
+// Per run; generous, as CI also runs this under ASan and UBSan on two cores.
+constexpr double kTimeout = 20;
 
 struct Outcome {
   ProcessResult check;
@@ -31,9 +35,11 @@ Outcome RunDeck(const std::string& name, const std::string& text) {
   }
   TempDir out;
   Outcome o;
-  o.check = RunHeatdeck({"check", name}, dir.path());
-  o.run = RunHeatdeck({"run", name, "-o", out.path()}, dir.path());
+  o.check = RunHeatdeck({"check", name}, dir.path(), kTimeout);
+  o.run = RunHeatdeck({"run", name, "-o", out.path()}, dir.path(), kTimeout);
   o.written = out.Entries();
+  EXPECT_FALSE(o.check.timed_out || o.run.timed_out)
+      << name << ": heatdeck ran longer than " << kTimeout << " s";
   return o;
 }
 
@@ -86,6 +92,37 @@ TEST(StressDecks, MegabyteCommentLineIsAValidDeck) {
   ASSERT_FALSE(o.check.signalled);
   EXPECT_EQ(o.check.status, 0) << o.check.err.substr(0, 2000);
   EXPECT_EQ(o.check.out, "comment.deck: 1 quantities, 0 checks: 0 passed, 0 failed\n");
+}
+
+TEST(StressDecks, TenMegabyteLineOfAnUnknownName) {
+  const std::string text = "given m = 1 kg/s\nx = m * " + std::string(10 * kMegabyte, 'n') + "\n";
+  const Outcome o = RunDeck("tenmb.deck", text);
+  ExpectRejected(o, "tenmb.deck", text, "tenmb.deck:2:9: error: unknown name 'nnnn");
+  EXPECT_LT(o.check.err.size(), 10000u) << "stderr holds " << o.check.err.size() << " bytes";
+}
+
+TEST(StressDecks, TenMegabyteDescriptionIsAValidDeckWithItsReports) {
+  // No spreadsheet cell holds 10 MB of text (the workbook keeps the first
+  // 32 767 characters); the HTML report keeps it whole.
+  const std::string description(10 * kMegabyte, 'd');
+  const std::string text = "given m = 1 kg/s \"" + description + "\"\nC = m * 2 kJ/kg in kW\n";
+  TempDir dir;
+  {
+    std::ofstream f(dir.path() + "/tenmb_text.deck", std::ios::binary);
+    f << text;
+  }
+  TempDir out;
+  const ProcessResult r =
+      RunHeatdeck({"run", "tenmb_text.deck", "-o", out.path()}, dir.path(), kTimeout);
+  ASSERT_FALSE(r.timed_out) << "heatdeck ran longer than " << kTimeout << " s";
+  ASSERT_FALSE(r.signalled) << r.err.substr(0, 2000);
+  EXPECT_EQ(r.status, 0) << r.err.substr(0, 2000);
+  EXPECT_LT(r.err.size(), 10000u) << "stderr holds " << r.err.size() << " bytes";
+  EXPECT_EQ(out.Entries(),
+            (std::vector<std::string>{"tenmb_text.html", "tenmb_text.json", "tenmb_text.xlsx"}));
+  std::ifstream html(out.path() + "/tenmb_text.html", std::ios::binary);
+  const std::string page((std::istreambuf_iterator<char>(html)), std::istreambuf_iterator<char>());
+  EXPECT_NE(page.find(description), std::string::npos);
 }
 
 // A sum of many terms is a long line, not a deep nesting to the author, but
