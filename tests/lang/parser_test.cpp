@@ -134,6 +134,18 @@ TEST(Parser, UnterminatedStringAndBadUtf8) {
   EXPECT_NE(errors.find("input:1:9: error: invalid UTF-8 byte 0xFF"), std::string::npos) << errors;
 }
 
+// A '\' at the very end of a file without a last newline continues onto no
+// line: the error is on the line of the '\', not on a line 3 that the file
+// does not have.
+TEST(Parser, ContinuationAtTheEndOfTheFileStaysOnItsLine) {
+  std::string errors;
+  DumpOf("given a = 1 m\nx = a + \\", &errors);
+  EXPECT_NE(errors.find("input:2:10: error: expected a value, found end of line"),
+            std::string::npos)
+      << errors;
+  EXPECT_EQ(errors.find("input:3:"), std::string::npos) << errors;
+}
+
 // Found by fuzz_deck: a broken UTF-8 lead byte just before a newline took
 // the newline into its "character", so every later line was counted as
 // line 1 and carets pointed past the end of the quoted line.
