@@ -8,7 +8,10 @@ namespace heatdeck {
 
 std::string CsvCell(const std::string& text) {
   std::string t = text;
-  if (!t.empty() && (t[0] == '=' || t[0] == '+' || t[0] == '-' || t[0] == '@')) t = "'" + t;
+  if (!t.empty() &&
+      (t[0] == '=' || t[0] == '+' || t[0] == '-' || t[0] == '@' || t[0] == '\t' || t[0] == '\r')) {
+    t = "'" + t;
+  }
   if (t.find_first_of(",\"\n\r") == std::string::npos && t == text) return t;
   std::string q = "\"";
   for (char c : t) {

@@ -22,8 +22,10 @@ class CsvWriter {
 };
 
 // A text cell quoted by the usual CSV practice (RFC 4180), and kept from
-// being read as a formula by spreadsheets: a cell beginning with = + - @
-// gets a leading apostrophe (common practice).
+// being read as a formula by spreadsheets: a cell beginning with = + - @,
+// a tab or a carriage return gets a leading apostrophe inside quotes
+// (common practice).  Numbers are not cells of this kind: CsvWriter::Row
+// writes them as they are, so -1.5 stays a number.
 std::string CsvCell(const std::string& text);
 
 }  // namespace heatdeck
