@@ -7,9 +7,11 @@
 #include <chrono>
 #include <cmath>
 #include <filesystem>
+#include <map>
 #include <regex>
 #include <string>
 #include <thread>
+#include <vector>
 
 #include <gtest/gtest.h>
 
@@ -365,6 +367,45 @@ TEST_F(XlsxValuesDeck, SweepSheetWithAChartPerResult) {
   EXPECT_NE(chart.find("Sweep!$A$5:$A$8"), std::string::npos);
   EXPECT_NE(chart.find("Sweep!$A$9:$A$12"), std::string::npos);
   EXPECT_NE(chart.find("T_w = 26.00 degC"), std::string::npos);
+}
+
+// Every kind of text a deck carries (title, meta, section, narrative,
+// descriptions, sources, check and case descriptions), each beginning with
+// a character that makes a spreadsheet read a formula: all of it reaches
+// every sheet as text, never as a formula.
+TEST(XlsxWriter, DeckTextBeginningWithAFormulaSignIsTextOnEverySheet) {
+  Written w("xlsx_injection");
+  const std::vector<std::string> texts = {"=HYPERLINK(\"http://example.invalid\",\"title\")",
+                                          "+project 1",
+                                          "-prepared by",
+                                          "@status",
+                                          "=section",
+                                          "=narrative(1)",
+                                          "=description of m",
+                                          "@source of m",
+                                          "+description of cp",
+                                          "-source of cp",
+                                          "-description of C",
+                                          "=check description",
+                                          "+case description"};
+  std::map<std::string, int> seen;
+  for (const auto& sheet : w.book["sheets"]) {
+    for (const auto& [ref, cell] : sheet["cells"].items()) {
+      if (!cell.contains("v") || !cell["v"].is_string()) continue;
+      const std::string v = cell["v"];
+      for (const std::string& t : texts) {
+        if (v.find(t) == std::string::npos) continue;
+        ++seen[t];
+        const std::string where = sheet["name"].get<std::string>() + "!" + ref;
+        EXPECT_FALSE(cell.contains("f")) << where << " holds a formula: " << cell.dump();
+        EXPECT_EQ(cell["t"], "s") << where << " is not a text cell: " << cell.dump();
+      }
+    }
+  }
+  for (const std::string& t : texts)
+    EXPECT_GT(seen[t], 0) << "'" << t << "' is not in the workbook";
+  // The title heads the summary, the calculation and the case's sheet.
+  EXPECT_EQ(seen[texts[0]], 3);
 }
 
 }  // namespace
