@@ -12,8 +12,8 @@
 extern "C" int LLVMFuzzerTestOneInput(const uint8_t* data, size_t size) {
   heatdeck::SessionOptions options;
   options.jobs = 1;
-  options.max_sweep_points = 2000;  // keep each run short
-  options.keep_sweep_points = 2000;
+  options.max_sweep_points = 256;  // keep each run short
+  options.keep_sweep_points = 256;
   options.max_statements = 5000;
   heatdeck::Session s;
   if (s.LoadText("fuzz.deck", std::string(reinterpret_cast<const char*>(data), size), options) &&
