@@ -5,7 +5,7 @@
 #include <sstream>
 
 #include <fmt/format.h>
-#include <openssl/evp.h>
+#include <nettle/sha2.h>
 
 namespace heatdeck {
 
@@ -40,13 +40,22 @@ bool ReadWholeFile(const std::string& path, size_t max_bytes, std::string* out, 
   return true;
 }
 
+// Nettle's SHA-256 rather than OpenSSL's: OpenSSL 3 sets up its library
+// context and default provider on first use, which with loading libcrypto
+// cost about 4 ms of process time per run, more than the whole start-up
+// budget of `heatdeck check` (tools/bench.sh, P2); Nettle's hash needs no set-up.
 std::string Sha256Hex(const std::string& data) {
-  unsigned char digest[EVP_MAX_MD_SIZE];
-  unsigned int len = 0;
-  EVP_Digest(data.data(), data.size(), digest, &len, EVP_sha256(), nullptr);
-  std::string hex;
-  hex.reserve(2 * len);
-  for (unsigned int i = 0; i < len; ++i) hex += fmt::format("{:02x}", digest[i]);
+  sha256_ctx ctx;
+  sha256_init(&ctx);
+  sha256_update(&ctx, data.size(), reinterpret_cast<const uint8_t*>(data.data()));
+  uint8_t digest[SHA256_DIGEST_SIZE];
+  sha256_digest(&ctx, sizeof digest, digest);
+  static constexpr char kHex[] = "0123456789abcdef";
+  std::string hex(2 * sizeof digest, '0');
+  for (size_t i = 0; i < sizeof digest; ++i) {
+    hex[2 * i] = kHex[digest[i] >> 4];
+    hex[2 * i + 1] = kHex[digest[i] & 0x0F];
+  }
   return hex;
 }
 
