@@ -1,7 +1,5 @@
 #include "report/xlsx_writer.h"
 
-#include <xlsxwriter.h>
-
 #include <algorithm>
 #include <cmath>
 #include <ctime>
@@ -13,6 +11,7 @@
 
 #include "report/report_common.h"
 #include "report/xlsx_formula.h"
+#include "report/xlsx_library.h"
 
 namespace heatdeck {
 namespace {
@@ -120,8 +119,9 @@ const char* KindLabel(QuantityMessage::Kind k) {
 
 class Writer {
  public:
-  Writer(const Results& results, lxw_workbook* wb)
-      : r_(results),
+  Writer(const xlsx::Library& lx, const Results& results, lxw_workbook* wb)
+      : lx_(lx),
+        r_(results),
         m_(*results.model),
         wb_(wb),
         names_(xlsx::MakeDefinedNames(m_)),
@@ -139,10 +139,10 @@ class Writer {
   void MakeStyles();
   // Landscape, one page wide, the header row (if any) repeated on every page.
   void PrintSetup(lxw_worksheet* ws, lxw_row_t header_row, bool repeat = true) {
-    worksheet_set_landscape(ws);
-    worksheet_fit_to_pages(ws, 1, 0);
+    lx_.worksheet_set_landscape(ws);
+    lx_.worksheet_fit_to_pages(ws, 1, 0);
     if (repeat)
-      Check(worksheet_repeat_rows(ws, header_row, header_row), "setting the print titles");
+      Check(lx_.worksheet_repeat_rows(ws, header_row, header_row), "setting the print titles");
   }
   void SetProperties();
   void Summary(lxw_worksheet* ws, const std::vector<std::string>& sheets,
@@ -158,19 +158,20 @@ class Writer {
   // closed; everything passed to it lives here.
   const char* Keep(std::string s) { return kept_.emplace_back(std::move(s)).c_str(); }
   void Check(lxw_error e, const std::string& what) {
-    if (e != LXW_NO_ERROR && error_.empty()) error_ = fmt::format("{}: {}", what, lxw_strerror(e));
+    if (e != LXW_NO_ERROR && error_.empty())
+      error_ = fmt::format("{}: {}", what, lx_.lxw_strerror(e));
   }
   void Text(lxw_worksheet* ws, lxw_row_t row, lxw_col_t col, const std::string& s,
             lxw_format* f = nullptr) {
     if (s.empty() && f == nullptr) return;
     // write_string stores a shared string: text that starts with '=' stays text.
-    Check(worksheet_write_string(ws, row, col, Keep(CellText(s)), f), "writing text");
+    Check(lx_.worksheet_write_string(ws, row, col, Keep(CellText(s)), f), "writing text");
   }
   void Number(lxw_worksheet* ws, lxw_row_t row, lxw_col_t col, double v, lxw_format* f) {
     if (std::isfinite(v)) {
-      Check(worksheet_write_number(ws, row, col, v, f), "writing a number");
+      Check(lx_.worksheet_write_number(ws, row, col, v, f), "writing a number");
     } else {
-      Check(worksheet_write_string(ws, row, col, "#N/A", f), "writing a number");
+      Check(lx_.worksheet_write_string(ws, row, col, "#N/A", f), "writing a number");
     }
   }
   // A formula with heatdeck's value cached, so that a reader that does not
@@ -179,29 +180,31 @@ class Writer {
                double cached, lxw_format* f) {
     const char* text = Keep("=" + formula);
     if (std::isfinite(cached)) {
-      Check(worksheet_write_formula_num(ws, row, col, text, f, cached), "writing a formula");
+      Check(lx_.worksheet_write_formula_num(ws, row, col, text, f, cached), "writing a formula");
     } else {
-      Check(worksheet_write_formula_str(ws, row, col, text, f, "#N/A"), "writing a formula");
+      Check(lx_.worksheet_write_formula_str(ws, row, col, text, f, "#N/A"), "writing a formula");
     }
   }
   void FormulaText(lxw_worksheet* ws, lxw_row_t row, lxw_col_t col, const std::string& formula,
                    const std::string& cached, lxw_format* f) {
-    Check(worksheet_write_formula_str(ws, row, col, Keep("=" + formula), f, Keep(cached)),
+    Check(lx_.worksheet_write_formula_str(ws, row, col, Keep("=" + formula), f, Keep(cached)),
           "writing a formula");
   }
   void Note(lxw_worksheet* ws, lxw_row_t row, lxw_col_t col, const std::string& text) {
     lxw_comment_options o{};
     o.width = 360;
     o.height = 120;
-    Check(worksheet_write_comment_opt(ws, row, col, Keep(CellText(text)), &o), "writing a note");
+    Check(lx_.worksheet_write_comment_opt(ws, row, col, Keep(CellText(text)), &o),
+          "writing a note");
   }
   void DefineName(const std::string& name, const std::string& sheet, lxw_row_t row, lxw_col_t col,
                   bool global) {
     const std::string target = "=" + SheetRef(sheet) + "!" + Cell(row, col, true);
     const std::string full = global ? name : SheetRef(sheet) + "!" + name;
-    Check(workbook_define_name(wb_, Keep(full), Keep(target)), "defining the name " + full);
+    Check(lx_.workbook_define_name(wb_, Keep(full), Keep(target)), "defining the name " + full);
   }
 
+  const xlsx::Library& lx_;
   const Results& r_;
   const Model& m_;
   lxw_workbook* wb_;
@@ -221,33 +224,33 @@ class Writer {
 };
 
 void Writer::MakeStyles() {
-  title_ = workbook_add_format(wb_);
-  format_set_bold(title_);
-  format_set_font_size(title_, 14);
-  bold_ = workbook_add_format(wb_);
-  format_set_bold(bold_);
-  header_ = workbook_add_format(wb_);
-  format_set_bold(header_);
-  format_set_bottom(header_, LXW_BORDER_THIN);
-  format_set_bg_color(header_, 0xDDDDDD);
-  section_ = workbook_add_format(wb_);
-  format_set_bold(section_);
-  format_set_bg_color(section_, 0xD9E1F2);
-  narrative_ = workbook_add_format(wb_);
-  format_set_italic(narrative_);
+  title_ = lx_.workbook_add_format(wb_);
+  lx_.format_set_bold(title_);
+  lx_.format_set_font_size(title_, 14);
+  bold_ = lx_.workbook_add_format(wb_);
+  lx_.format_set_bold(bold_);
+  header_ = lx_.workbook_add_format(wb_);
+  lx_.format_set_bold(header_);
+  lx_.format_set_bottom(header_, LXW_BORDER_THIN);
+  lx_.format_set_bg_color(header_, 0xDDDDDD);
+  section_ = lx_.workbook_add_format(wb_);
+  lx_.format_set_bold(section_);
+  lx_.format_set_bg_color(section_, 0xD9E1F2);
+  narrative_ = lx_.workbook_add_format(wb_);
+  lx_.format_set_italic(narrative_);
   // Inputs: yellow, the common spreadsheet convention for cells a user
   // may change.
-  input_ = workbook_add_format(wb_);
-  format_set_bg_color(input_, 0xFFF2CC);
-  format_set_border(input_, LXW_BORDER_THIN);
-  format_set_border_color(input_, 0xBF9000);
-  value_only_ = workbook_add_format(wb_);
-  format_set_bg_color(value_only_, 0xE7E6E6);
-  format_set_italic(value_only_);
-  caution_ = workbook_add_format(wb_);
-  format_set_bold(caution_);
-  format_set_text_wrap(caution_);
-  format_set_font_color(caution_, 0x9C0006);
+  input_ = lx_.workbook_add_format(wb_);
+  lx_.format_set_bg_color(input_, 0xFFF2CC);
+  lx_.format_set_border(input_, LXW_BORDER_THIN);
+  lx_.format_set_border_color(input_, 0xBF9000);
+  value_only_ = lx_.workbook_add_format(wb_);
+  lx_.format_set_bg_color(value_only_, 0xE7E6E6);
+  lx_.format_set_italic(value_only_);
+  caution_ = lx_.workbook_add_format(wb_);
+  lx_.format_set_bold(caution_);
+  lx_.format_set_text_wrap(caution_);
+  lx_.format_set_font_color(caution_, 0x9C0006);
 }
 
 void Writer::SetProperties() {
@@ -264,7 +267,7 @@ void Writer::SetProperties() {
   p.comments = const_cast<char*>(
       Keep(fmt::format("Written by heatdeck {} from {}", r_.tool_version, r_.deck_path)));
   p.created = CreatedTime(r_.date);
-  Check(workbook_set_properties(wb_, &p), "setting the document properties");
+  Check(lx_.workbook_set_properties(wb_, &p), "setting the document properties");
 }
 
 void Writer::QuantityRow(const CaseResult& c, int qi, lxw_worksheet* ws, lxw_row_t row,
@@ -434,14 +437,14 @@ Writer::CheckRows Writer::CaseSheet(size_t case_index, lxw_worksheet* ws,
   const bool global = case_index == 0;
   CheckRows checks;
 
-  worksheet_set_column(ws, kColSymbol, kColSymbol, 22, nullptr);
-  worksheet_set_column(ws, kColDescription, kColDescription, 40, nullptr);
-  worksheet_set_column(ws, kColSi, kColSi, 18, nullptr);
-  worksheet_set_column(ws, kColSiUnit, kColSiUnit, 12, nullptr);
-  worksheet_set_column(ws, kColDisplay, kColDisplay, 16, nullptr);
-  worksheet_set_column(ws, kColUnit, kColUnit, 12, nullptr);
-  worksheet_set_column(ws, kColSource, kColSource, 30, nullptr);
-  worksheet_set_column(ws, kColNotes, kColNotes, 60, nullptr);
+  lx_.worksheet_set_column(ws, kColSymbol, kColSymbol, 22, nullptr);
+  lx_.worksheet_set_column(ws, kColDescription, kColDescription, 40, nullptr);
+  lx_.worksheet_set_column(ws, kColSi, kColSi, 18, nullptr);
+  lx_.worksheet_set_column(ws, kColSiUnit, kColSiUnit, 12, nullptr);
+  lx_.worksheet_set_column(ws, kColDisplay, kColDisplay, 16, nullptr);
+  lx_.worksheet_set_column(ws, kColUnit, kColUnit, 12, nullptr);
+  lx_.worksheet_set_column(ws, kColSource, kColSource, 30, nullptr);
+  lx_.worksheet_set_column(ws, kColNotes, kColNotes, 60, nullptr);
 
   Text(ws, 0, 0, m_.title.empty() ? r_.deck_path : m_.title, title_);
   Text(ws, 1, 0,
@@ -454,7 +457,7 @@ Writer::CheckRows Writer::CaseSheet(size_t case_index, lxw_worksheet* ws,
   const char* headers[] = {"Symbol", "Description", "Value (SI)", "SI unit",
                            "Value",  "Unit",        "Source",     "Warnings and notes"};
   for (lxw_col_t col = 0; col < 8; ++col) Text(ws, 4, col, headers[col], header_);
-  worksheet_freeze_panes(ws, kFirstContentRow, 0);
+  lx_.worksheet_freeze_panes(ws, kFirstContentRow, 0);
   PrintSetup(ws, kFirstContentRow - 1);
 
   std::vector<bool> placed_q(m_.quantities.size(), false);
@@ -527,9 +530,9 @@ Writer::CheckRows Writer::CaseSheet(size_t case_index, lxw_worksheet* ws,
 
 void Writer::Summary(lxw_worksheet* ws, const std::vector<std::string>& sheets,
                      const std::vector<CheckRows>& check_rows) {
-  worksheet_set_column(ws, 0, 0, 24, nullptr);
-  worksheet_set_column(ws, 1, 1, 60, nullptr);
-  worksheet_set_column(ws, 2, 6, 14, nullptr);
+  lx_.worksheet_set_column(ws, 0, 0, 24, nullptr);
+  lx_.worksheet_set_column(ws, 1, 1, 60, nullptr);
+  lx_.worksheet_set_column(ws, 2, 6, 14, nullptr);
   PrintSetup(ws, 0, false);
   lxw_row_t row = 0;
   Text(ws, row++, 0, m_.title.empty() ? r_.deck_path : m_.title, title_);
@@ -602,8 +605,8 @@ void Writer::Summary(lxw_worksheet* ws, const std::vector<std::string>& sheets,
     Text(ws, row, 1, "The deck has no checks", bold_);
   }
   row += 2;
-  worksheet_set_row(ws, row, 64, nullptr);
-  Check(worksheet_merge_range(ws, row, 0, row, 6, report::kSafetyCaution, caution_),
+  lx_.worksheet_set_row(ws, row, 64, nullptr);
+  Check(lx_.worksheet_merge_range(ws, row, 0, row, 6, report::kSafetyCaution, caution_),
         "writing the caution");
   row += 2;
 
@@ -647,8 +650,8 @@ void Writer::SweepSheet(const SweepResult& s, lxw_worksheet* ws, const std::stri
          header_);
   }
   Text(ws, header, static_cast<lxw_col_t>(ncols), "Error", header_);
-  worksheet_set_column(ws, 0, static_cast<lxw_col_t>(ncols), 16, nullptr);
-  worksheet_freeze_panes(ws, header + 1, 0);
+  lx_.worksheet_set_column(ws, 0, static_cast<lxw_col_t>(ncols), 16, nullptr);
+  lx_.worksheet_freeze_panes(ws, header + 1, 0);
   PrintSetup(ws, header);
 
   // Rows in an order where the first swept input varies fastest, so that
@@ -720,23 +723,25 @@ void Writer::SweepSheet(const SweepResult& s, lxw_worksheet* ws, const std::stri
     const Quantity& q = m_.quantities[static_cast<size_t>(qi)];
     if (std::find(s.swept.begin(), s.swept.end(), qi) != s.swept.end()) continue;
     if (q.kind == QuantityKind::kGiven) continue;  // constant over the sweep
-    lxw_chart* chart = workbook_add_chart(wb_, LXW_CHART_SCATTER_STRAIGHT_WITH_MARKERS);
-    chart_title_set_name(chart, Keep(q.name));
-    chart_axis_set_name(chart->x_axis, Keep(fmt::format("{} [{}]", x.name, UnitText(x.display))));
-    chart_axis_set_name(chart->y_axis, Keep(fmt::format("{} [{}]", q.name, UnitText(q.display))));
+    lxw_chart* chart = lx_.workbook_add_chart(wb_, LXW_CHART_SCATTER_STRAIGHT_WITH_MARKERS);
+    lx_.chart_title_set_name(chart, Keep(q.name));
+    lx_.chart_axis_set_name(chart->x_axis,
+                            Keep(fmt::format("{} [{}]", x.name, UnitText(x.display))));
+    lx_.chart_axis_set_name(chart->y_axis,
+                            Keep(fmt::format("{} [{}]", q.name, UnitText(q.display))));
     for (const Run& run : runs) {
-      lxw_chart_series* series = chart_add_series(chart, nullptr, nullptr);
+      lxw_chart_series* series = lx_.chart_add_series(chart, nullptr, nullptr);
       const lxw_row_t r0 = header + 1 + static_cast<lxw_row_t>(run.begin);
       const lxw_row_t r1 = header + static_cast<lxw_row_t>(run.end);
-      chart_series_set_categories(series, sheet_name, r0, static_cast<lxw_col_t>(swept_col[0]), r1,
-                                  static_cast<lxw_col_t>(swept_col[0]));
-      chart_series_set_values(series, sheet_name, r0, static_cast<lxw_col_t>(k), r1,
-                              static_cast<lxw_col_t>(k));
-      if (!run.name.empty()) chart_series_set_name(series, Keep(run.name));
+      lx_.chart_series_set_categories(series, sheet_name, r0, static_cast<lxw_col_t>(swept_col[0]),
+                                      r1, static_cast<lxw_col_t>(swept_col[0]));
+      lx_.chart_series_set_values(series, sheet_name, r0, static_cast<lxw_col_t>(k), r1,
+                                  static_cast<lxw_col_t>(k));
+      if (!run.name.empty()) lx_.chart_series_set_name(series, Keep(run.name));
     }
-    if (runs.size() == 1) chart_legend_set_position(chart, LXW_CHART_LEGEND_NONE);
-    Check(worksheet_insert_chart(ws, header + 1 + 16 * static_cast<lxw_row_t>(chart_index),
-                                 static_cast<lxw_col_t>(ncols + 2), chart),
+    if (runs.size() == 1) lx_.chart_legend_set_position(chart, LXW_CHART_LEGEND_NONE);
+    Check(lx_.worksheet_insert_chart(ws, header + 1 + 16 * static_cast<lxw_row_t>(chart_index),
+                                     static_cast<lxw_col_t>(ncols + 2), chart),
           "inserting a chart");
     ++chart_index;
   }
@@ -745,7 +750,7 @@ void Writer::SweepSheet(const SweepResult& s, lxw_worksheet* ws, const std::stri
 bool Writer::Build(std::string* error) {
   MakeStyles();
   SetProperties();
-  lxw_worksheet* summary = workbook_add_worksheet(wb_, "Summary");
+  lxw_worksheet* summary = lx_.workbook_add_worksheet(wb_, "Summary");
 
   // Sheet names: unique ignoring case, at most 31 characters, none of
   // []:*?/\ (a case name is a deck identifier, so only the length matters).
@@ -765,7 +770,7 @@ bool Writer::Build(std::string* error) {
   std::vector<CheckRows> check_rows;
   for (size_t ci = 0; ci < r_.cases.size(); ++ci) {
     sheets.push_back(unique_sheet(ci == 0 ? "Calculation" : "Case " + r_.cases[ci].name));
-    lxw_worksheet* ws = workbook_add_worksheet(wb_, Keep(sheets.back()));
+    lxw_worksheet* ws = lx_.workbook_add_worksheet(wb_, Keep(sheets.back()));
     if (ws == nullptr) {
       *error = fmt::format("cannot add the sheet '{}'", sheets.back());
       return false;
@@ -776,14 +781,14 @@ bool Writer::Build(std::string* error) {
   for (size_t k = 0; k < r_.sweeps.size(); ++k) {
     if (r_.sweeps[k].rows.empty()) continue;
     const std::string name = unique_sheet(k == 0 ? "Sweep" : fmt::format("Sweep {}", k + 1));
-    lxw_worksheet* ws = workbook_add_worksheet(wb_, Keep(name));
+    lxw_worksheet* ws = lx_.workbook_add_worksheet(wb_, Keep(name));
     if (ws == nullptr) {
       *error = fmt::format("cannot add the sheet '{}'", name);
       return false;
     }
     SweepSheet(r_.sweeps[k], ws, name);
   }
-  worksheet_activate(summary);
+  lx_.worksheet_activate(summary);
   if (!error_.empty()) *error = error_;
   return error_.empty();
 }
@@ -795,19 +800,25 @@ bool WriteXlsx(const Results& results, const std::string& path, std::string* err
     *error = "there are no results to write";
     return false;
   }
-  lxw_workbook* wb = workbook_new(path.c_str());
+  std::string why;
+  const xlsx::Library* lx = xlsx::XlsxLibrary(&why);
+  if (lx == nullptr) {
+    *error = fmt::format("cannot write the workbook {}: {}", path, why);
+    return false;
+  }
+  lxw_workbook* wb = lx->workbook_new(path.c_str());
   if (wb == nullptr) {
     *error = fmt::format("cannot create the workbook {}", path);
     return false;
   }
   bool ok = false;
   {
-    Writer w(results, wb);
+    Writer w(*lx, results, wb);
     ok = w.Build(error);
     // The writer's strings must outlive workbook_close, which reads them.
-    const lxw_error closed = workbook_close(wb);
+    const lxw_error closed = lx->workbook_close(wb);
     if (ok && closed != LXW_NO_ERROR) {
-      *error = fmt::format("cannot write the workbook {}: {}", path, lxw_strerror(closed));
+      *error = fmt::format("cannot write the workbook {}: {}", path, lx->lxw_strerror(closed));
       ok = false;
     }
   }
