@@ -75,18 +75,21 @@ class Session {
   int ExitStatus() const;
 
   // Streams the deck's sweep (for the case chosen in the options, else
-  // base) to `on_header` once and `on_row` per point in grid order:
-  // display-unit values of the columns and the point's error ("" if none).
+  // base): `on_header` once, then `format_row` per point — display-unit
+  // values of the columns and the point's error ("" if none), appended as
+  // bytes to *out — and `write` with those bytes in grid order.
+  // format_row is called from the sweep's worker threads at once, so it
+  // must touch nothing shared; write is called by one thread at a time.
   // Returns false and sets *error when the deck has no sweep or a column
   // name is unknown.
   struct SweepColumn {
     std::string name;
     std::string unit;  // display unit
   };
-  bool StreamSweep(
-      const std::function<void(const std::vector<SweepColumn>&)>& on_header,
-      const std::function<void(const double* values, const std::string& error)>& on_row,
-      std::string* error);
+  bool StreamSweep(const std::function<void(const std::vector<SweepColumn>&)>& on_header,
+                   const std::function<void(const double* values, const std::string& error,
+                                            std::string* out)>& format_row,
+                   const std::function<void(const std::string& bytes)>& write, std::string* error);
 
  private:
   std::vector<std::pair<int, double>> CaseOverrides() const;

@@ -35,7 +35,10 @@ bool WriteSweepCsv(Session& session, std::FILE* out, bool header, std::string* e
         }
         csv.Header(names, units);
       },
-      [&](const double* values, const std::string& err) { csv.Row(values, n, err); }, error);
+      [&](const double* values, const std::string& err, std::string* line) {
+        CsvWriter::AppendRow(line, values, n, err);
+      },
+      [&](const std::string& bytes) { csv.Write(bytes); }, error);
   if (ok && !csv.ok()) *error = "write error";
   std::fflush(out);
   return ok && csv.ok();

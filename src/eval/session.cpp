@@ -274,10 +274,11 @@ bool Session::SweepColumnsFor(std::vector<int>* columns, std::string* why) const
   return true;
 }
 
-bool Session::StreamSweep(
-    const std::function<void(const std::vector<SweepColumn>&)>& on_header,
-    const std::function<void(const double* values, const std::string& error)>& on_row,
-    std::string* error) {
+bool Session::StreamSweep(const std::function<void(const std::vector<SweepColumn>&)>& on_header,
+                          const std::function<void(const double* values, const std::string& error,
+                                                   std::string* out)>& format_row,
+                          const std::function<void(const std::string& bytes)>& write,
+                          std::string* error) {
   State& s = *s_;
   if (!s.evaluated) {
     *error = "the deck has not been evaluated";
@@ -299,17 +300,23 @@ bool Session::StreamSweep(
   }
   on_header(header);
   struct Stream : SweepSink {
-    const std::function<void(const double*, const std::string&)>* row;
-    std::vector<const units::Unit*>* unit;
-    std::vector<double> shown;
-    void Point(size_t, const double* values, const std::string& err) override {
+    const std::function<void(const double*, const std::string&, std::string*)>* format;
+    const std::function<void(const std::string&)>* write;
+    const std::vector<const units::Unit*>* unit;
+    void Point(size_t, const double*, const std::string&) override {}
+    bool Formats() const override { return true; }
+    void Format(size_t, const double* values, const std::string& err,
+                std::string* out) const override {
+      thread_local std::vector<double> shown;
+      shown.resize(unit->size());
       for (size_t c = 0; c < shown.size(); ++c) shown[c] = (*unit)[c]->FromSi(values[c]);
-      (*row)(shown.data(), err);
+      (*format)(shown.data(), err, out);
     }
+    void Write(const std::string& bytes) override { (*write)(bytes); }
   } stream;
-  stream.row = &on_row;
+  stream.format = &format_row;
+  stream.write = &write;
   stream.unit = &unit;
-  stream.shown.resize(columns.size());
   SweepOptions so;
   so.jobs = EffectiveJobs();
   so.shard = s.options.shard;

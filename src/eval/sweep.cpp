@@ -90,6 +90,8 @@ size_t RunSweep(const Model& model, const Plan& plan,
     std::vector<double> rows(block * ncol);
     std::vector<std::string> errors(block);
     std::vector<size_t> digit(model.sweeps.size());
+    const bool formats = sink.Formats();
+    std::string bytes;
     for (;;) {
       const size_t b = next_block.fetch_add(1);
       if (b >= blocks) break;
@@ -111,6 +113,16 @@ size_t RunSweep(const Model& model, const Plan& plan,
         if (!ev.EvaluatePoint(&err)) failures.fetch_add(1);
         double* row = rows.data() + (p - first) * ncol;
         for (size_t c = 0; c < ncol; ++c) row[c] = frame[static_cast<size_t>(options.columns[c])];
+      }
+      if (formats) {
+        bytes.clear();
+        for (size_t p = first; p < last; ++p) {
+          sink.Format(p, rows.data() + (p - first) * ncol, errors[p - first], &bytes);
+        }
+        order.WaitTurn(b);
+        sink.Write(bytes);
+        order.Done();
+        continue;
       }
       order.WaitTurn(b);
       for (size_t p = first; p < last; ++p) {

@@ -23,10 +23,20 @@ struct SweepOptions {
 
 // Receives points in grid order.  values has one SI value per column (NaN
 // where not evaluated); error is empty when the point evaluated.
+//
+// A sink that turns points into bytes (a CSV stream) says so with
+// Formats(): the workers then call Format() in parallel, each appending a
+// block of points to its own buffer, and only Write() of the finished
+// blocks is serialised, in grid order.  Other sinks get Point() in order.
 class SweepSink {
  public:
   virtual ~SweepSink() = default;
   virtual void Point(size_t index, const double* values, const std::string& error) = 0;
+  virtual bool Formats() const { return false; }
+  // Thread-safe: appends point `index` to *out.
+  virtual void Format(size_t /*index*/, const double* /*values*/, const std::string& /*error*/,
+                      std::string* /*out*/) const {}
+  virtual void Write(const std::string& /*bytes*/) {}
 };
 
 // Number of points in the grid (product of the sweep lines' sizes).

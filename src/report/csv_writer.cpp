@@ -2,6 +2,7 @@
 
 #include <cmath>
 
+#include <fmt/compile.h>
 #include <fmt/format.h>
 
 namespace heatdeck {
@@ -32,14 +33,25 @@ void CsvWriter::Header(const std::vector<std::string>& names,
   std::fwrite(line_.data(), 1, line_.size(), out_);
 }
 
+void CsvWriter::AppendRow(std::string* line, const double* values, size_t n,
+                          const std::string& error) {
+  // Each number goes to a buffer on the stack, then into the line in one
+  // append: a sweep writes millions of them.
+  char number[40];
+  for (size_t i = 0; i < n; ++i) {
+    if (std::isfinite(values[i])) {
+      const char* end = fmt::format_to(number, FMT_COMPILE("{}"), values[i]);
+      line->append(number, static_cast<size_t>(end - number));
+    }
+    *line += ',';
+  }
+  if (!error.empty()) *line += CsvCell(error);
+  *line += '\n';
+}
+
 void CsvWriter::Row(const double* values, size_t n, const std::string& error) {
   line_.clear();
-  for (size_t i = 0; i < n; ++i) {
-    if (std::isfinite(values[i])) fmt::format_to(std::back_inserter(line_), "{}", values[i]);
-    line_ += ',';
-  }
-  if (!error.empty()) line_ += CsvCell(error);
-  line_ += '\n';
+  AppendRow(&line_, values, n, error);
   std::fwrite(line_.data(), 1, line_.size(), out_);
 }
 

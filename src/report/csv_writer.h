@@ -14,6 +14,11 @@ class CsvWriter {
   explicit CsvWriter(std::FILE* out) : out_(out) {}
   void Header(const std::vector<std::string>& names, const std::vector<std::string>& units);
   void Row(const double* values, size_t n, const std::string& error);
+  // Bytes already formatted by AppendRow.
+  void Write(const std::string& bytes) { std::fwrite(bytes.data(), 1, bytes.size(), out_); }
+  // Appends one row to *line (touches nothing else: safe from many threads).
+  static void AppendRow(std::string* line, const double* values, size_t n,
+                        const std::string& error);
   bool ok() const { return std::ferror(out_) == 0; }
 
  private:
