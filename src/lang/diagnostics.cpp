@@ -122,7 +122,12 @@ void AppendQuote(std::string& out, std::string_view line, int col, int last_col,
     shown = line.substr(0, kMax);
   }
   out += "  ";
-  out += shown;
+  // Control bytes (an escape sequence could clear or recolour the
+  // terminal) are shown as '?'; tabs stay so that the caret lines up.
+  for (char c : shown) {
+    const auto u = static_cast<unsigned char>(c);
+    out += (u < 0x20 && c != '\t') || u == 0x7F ? '?' : c;
+  }
   out += '\n';
   out += "  ";
   // Columns count bytes; a terminal shows characters, so UTF-8

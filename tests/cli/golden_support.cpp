@@ -77,8 +77,14 @@ bool HasLocatedError(const std::string& err, const std::string& deck, const std:
     const std::string_view quoted = lines[i + 1];
     const std::string_view caret = lines[i + 2];
     const std::string_view wanted = src[static_cast<size_t>(line) - 1];
+    // The quote shows control bytes other than tab as '?'.
+    std::string shown(wanted);
+    for (char& c : shown) {
+      const auto u = static_cast<unsigned char>(c);
+      if ((u < 0x20 && c != '\t') || u == 0x7F) c = '?';
+    }
     if (wanted.size() <= 200) {
-      if (quoted != "  " + std::string(wanted)) {
+      if (quoted != "  " + shown) {
         *why = "the quoted line is not source line " + std::to_string(line) + ": " + where;
         return false;
       }

@@ -170,6 +170,15 @@ TEST(Parser, CaretPastTheEndOfALongLine) {
       << text;
 }
 
+// A deck must not be able to drive the terminal that shows its errors.
+TEST(Parser, QuotedLineShowsControlBytesAsQuestionMarks) {
+  std::string errors;
+  DumpOf("title \"\x1b[2J\x1b]0;x\x07\" $\n", &errors);
+  EXPECT_EQ(errors.find('\x1b'), std::string::npos) << errors;
+  EXPECT_EQ(errors.find('\x07'), std::string::npos) << errors;
+  EXPECT_NE(errors.find("  title \"?[2J?]0;x?\" $\n"), std::string::npos) << errors;
+}
+
 TEST(Parser, HugeNumberIsAnError) {
   std::string errors;
   DumpOf("given x = 1e400 m", &errors);
