@@ -5,9 +5,11 @@
 // which the Session keeps alive.
 #pragma once
 
+#include <deque>
 #include <memory>
 #include <string>
 #include <unordered_map>
+#include <utility>
 #include <vector>
 
 #include "lang/diagnostics.h"
@@ -131,6 +133,48 @@ struct ExprInfo {
   units::Unit unit;                           // literals: the parsed unit
 };
 
+// ExprInfo per expression node.  A std::unordered_map keyed by the node's
+// address cost a hash-node allocation and a cache miss per node, about a
+// tenth of checking a large deck; nodes already carry a dense id
+// (Expr::id, from the parser's arena), so the table is a deque indexed by
+// that id.  The slot remembers its node, so a node whose id is taken by
+// another (templates are parsed into decks of their own and number from 0
+// again, and writers look up temporary nodes) lives in a hashed overflow
+// instead.  References stay valid as the table grows, like the map's did.
+class ExprInfoTable {
+ public:
+  using Entry = std::pair<const Expr*, ExprInfo>;
+
+  ExprInfoTable() = default;
+  // The overflow points into its own store: moving keeps those addresses,
+  // copying would not.
+  ExprInfoTable(const ExprInfoTable&) = delete;
+  ExprInfoTable& operator=(const ExprInfoTable&) = delete;
+  ExprInfoTable(ExprInfoTable&&) = default;
+  ExprInfoTable& operator=(ExprInfoTable&&) = default;
+
+  // The node's info, default-constructed on first use.
+  ExprInfo& operator[](const Expr* e);
+  // The node's info; throws std::out_of_range when it has none.
+  const ExprInfo& at(const Expr* e) const;
+  // The node's entry, or end() (null) when it has none.
+  const Entry* find(const Expr* e) const;
+  const Entry* end() const { return nullptr; }
+  // Calls f(node, info) for every node with info, in no particular order.
+  template <typename F>
+  void ForEach(F&& f) const {
+    for (const Entry& x : slots_) {
+      if (x.first != nullptr) f(x.first, x.second);
+    }
+    for (const Entry& x : overflow_store_) f(x.first, x.second);
+  }
+
+ private:
+  std::deque<Entry> slots_;  // by Expr::id; first is null while unused
+  std::unordered_map<const Expr*, Entry*> overflow_;
+  std::deque<Entry> overflow_store_;
+};
+
 // Built-in math functions of the language (LANGUAGE.md "Expressions").
 enum class Builtin {
   kMin,
@@ -181,7 +225,7 @@ struct Model {
   std::vector<UseDef> uses;
   std::vector<ProfileDef> profiles;
   std::vector<int> order;  // quantity indices in dependency order
-  std::unordered_map<const Expr*, ExprInfo> info;
+  ExprInfoTable info;
   // prefer: display unit per dimension (absolute temperature separately).
   std::vector<units::Unit> prefer;
 

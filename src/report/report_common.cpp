@@ -582,9 +582,9 @@ std::vector<UnitUse> UnitsUsed(const Model& m) {
   }
   // Literal units, visited in a stable order (the info map is unordered, so
   // only the set of spellings is taken from it).
-  for (const auto& [e, info] : m.info) {
+  m.info.ForEach([&](const Expr* e, const ExprInfo& info) {
     if (e->kind == ExprKind::kNumber && !e->unit.empty()) add(info.unit);
-  }
+  });
   std::vector<UnitUse> out;
   for (auto& [text, u] : by_text) out.push_back(std::move(u));
   return out;
