@@ -26,6 +26,43 @@ bool NearlyEqual(double a, double b) {
   return std::fabs(a - b) <= kEqualTol * std::max(std::fabs(a), std::fabs(b));
 }
 
+// Decides a comparison check from its evaluated sides.  Returns false when
+// a side is not finite (the check is then not evaluated).
+bool JudgeSides(ExprKind kind, double l, double h, CheckResult& r) {
+  r.lhs_si = l;
+  r.rhs_si = h;
+  if (!std::isfinite(l) || !std::isfinite(h)) return false;
+  switch (kind) {
+    case ExprKind::kLt:
+      r.pass = l < h;
+      r.margin_si = h - l;
+      break;
+    case ExprKind::kLe:
+      r.pass = l <= h;
+      r.margin_si = h - l;
+      break;
+    case ExprKind::kGt:
+      r.pass = l > h;
+      r.margin_si = l - h;
+      break;
+    case ExprKind::kGe:
+      r.pass = l >= h;
+      r.margin_si = l - h;
+      break;
+    case ExprKind::kEq:
+      r.pass = NearlyEqual(l, h);
+      r.margin_si = -std::fabs(l - h);
+      break;
+    case ExprKind::kNe:
+      r.pass = !NearlyEqual(l, h);
+      r.margin_si = std::fabs(l - h);
+      break;
+    default:
+      break;
+  }
+  return true;
+}
+
 std::string Num(double v) {
   const std::string s = units::FormatExact(v);
   return v < 0 ? "(" + s + ")" : s;
@@ -113,6 +150,26 @@ struct Program::CheckStep {
   ExprParser lhs, rhs;
   bool sides = false;
   bool broken = false;
+};
+
+// Checks compiled together like quantities: one muParser expression list
+// "lhs0,rhs0,whole1,…" (both sides of a comparison, else the condition)
+// evaluated in one call.  A parser per check cost three parser
+// constructions and three first-evaluation set-ups per check, most of the
+// compile time of a deck with many checks.  Should the list fail to
+// evaluate, its checks are compiled alone, as before, so that only the
+// faulty one is reported as not evaluated.
+struct Program::CheckChunk {
+  ExprParser parser;
+  bool failed = false;
+  struct Slot {
+    int check = -1;
+    bool sides = false;
+    int first = 0;  // index of its first value in the list's results
+  };
+  std::vector<Slot> slots;
+  int values = 0;                                 // results the list gives
+  std::vector<std::unique_ptr<CheckStep>> alone;  // after a failure, per slot
 };
 
 // Translates typed expressions to muParser text.  Each variable a parser
@@ -315,25 +372,76 @@ void Program::Build(bool with_checks) {
     if (chunk->quantities.size() >= kChunk) flush();
   }
   flush();
-  for (size_t ci = 0; with_checks && ci < model_.checks.size(); ++ci) {
-    const CheckDef& c = model_.checks[ci];
-    auto step = std::make_unique<CheckStep>();
-    step->check = static_cast<int>(ci);
-    Translator whole(model_, step->whole, frame_, &sites_, &table_sites_, this, -1, false);
+  if (!with_checks) return;
+  std::unique_ptr<CheckChunk> cc;
+  text.clear();
+  auto flush_checks = [&] {
+    if (!cc || cc->slots.empty()) return;
     try {
-      step->whole.SetExpr(whole.Text(c.expr));
-      if (c.has_sides) {
-        step->sides = true;
-        Translator l(model_, step->lhs, frame_, &sites_, &table_sites_, this, -1, false);
-        step->lhs.SetExpr(l.Text(c.expr->args[0]));
-        Translator r(model_, step->rhs, frame_, &sites_, &table_sites_, this, -1, false);
-        step->rhs.SetExpr(r.Text(c.expr->args[1]));
-      }
+      cc->parser.SetExpr(text);
     } catch (const mu::ParserError&) {
-      step->broken = true;  // reported as not evaluated
+      cc->failed = true;  // compiled check by check on first use
     }
-    checks_.push_back(std::move(step));
+    check_chunks_.push_back(std::move(cc));
+    text.clear();
+  };
+  for (size_t ci = 0; ci < model_.checks.size(); ++ci) {
+    const CheckDef& c = model_.checks[ci];
+    if (!cc) cc = std::make_unique<CheckChunk>();
+    auto translate = [&](std::string* list) {
+      Translator t(model_, cc->parser, frame_, &sites_, &table_sites_, this, -1, false);
+      if (!c.has_sides) {
+        *list = t.Text(c.expr);
+        return;
+      }
+      *list = t.Text(c.expr->args[0]);
+      *list += ',';
+      *list += t.Text(c.expr->args[1]);
+    };
+    std::string list;
+    translate(&list);
+    // A check compiled alone also compiles its whole condition, which repeats
+    // each side up to twice plus a few dozen characters; a check that might
+    // come near muParser's length limit keeps that path, so that it breaks
+    // exactly as it always did.
+    if (2 * list.size() + 200 > kMaxText) {
+      checks_.push_back(CompileCheck(static_cast<int>(ci)));
+      continue;
+    }
+    if (!text.empty() && text.size() + list.size() + 1 > kMaxText) {
+      flush_checks();
+      cc = std::make_unique<CheckChunk>();
+      translate(&list);
+    }
+    cc->slots.push_back(CheckChunk::Slot{static_cast<int>(ci), c.has_sides, cc->values});
+    cc->values += c.has_sides ? 2 : 1;
+    if (!text.empty()) text += ',';
+    text += list;
+    if (cc->slots.size() >= kChunk) flush_checks();
   }
+  flush_checks();
+}
+
+// One check on parsers of its own (the whole condition, and both sides of a
+// comparison).
+std::unique_ptr<Program::CheckStep> Program::CompileCheck(int check) {
+  const CheckDef& c = model_.checks[static_cast<size_t>(check)];
+  auto step = std::make_unique<CheckStep>();
+  step->check = check;
+  Translator whole(model_, step->whole, frame_, &sites_, &table_sites_, this, -1, false);
+  try {
+    step->whole.SetExpr(whole.Text(c.expr));
+    if (c.has_sides) {
+      step->sides = true;
+      Translator l(model_, step->lhs, frame_, &sites_, &table_sites_, this, -1, false);
+      step->lhs.SetExpr(l.Text(c.expr->args[0]));
+      Translator r(model_, step->rhs, frame_, &sites_, &table_sites_, this, -1, false);
+      step->rhs.SetExpr(r.Text(c.expr->args[1]));
+    }
+  } catch (const mu::ParserError&) {
+    step->broken = true;  // reported as not evaluated
+  }
+  return step;
 }
 
 void Program::LoadGivens() {
@@ -462,58 +570,66 @@ void Program::RunAll(CaseResult* out) {
   recorded_.clear();
 }
 
-void Program::RunChecks(std::vector<CheckResult>* out, int* failed) const {
+void Program::RunCheck(const CheckStep& s, CheckResult& r, int* failed) const {
+  const CheckDef& c = model_.checks[static_cast<size_t>(s.check)];
+  bool inputs_ok = true;
+  for (int d : c.deps) inputs_ok = inputs_ok && std::isfinite(frame_[static_cast<size_t>(d)]);
+  if (!inputs_ok || s.broken) return;
+  try {
+    if (s.sides) {
+      r.lhs_si = s.lhs.Eval();
+      r.rhs_si = s.rhs.Eval();
+      if (!JudgeSides(c.expr->kind, r.lhs_si, r.rhs_si, r)) return;
+    } else {
+      const double v = s.whole.Eval();
+      if (!std::isfinite(v)) return;
+      r.pass = v != 0.0;
+    }
+    r.evaluated = true;
+    if (!r.pass) ++*failed;
+  } catch (const mu::ParserError&) {
+    r.evaluated = false;
+  }
+}
+
+void Program::RunChecks(std::vector<CheckResult>* out, int* failed) {
   out->assign(model_.checks.size(), CheckResult{});
   *failed = 0;
-  for (const auto& s : checks_) {
-    const CheckDef& c = model_.checks[static_cast<size_t>(s->check)];
-    CheckResult& r = (*out)[static_cast<size_t>(s->check)];
-    bool inputs_ok = true;
-    for (int d : c.deps) inputs_ok = inputs_ok && std::isfinite(frame_[static_cast<size_t>(d)]);
-    if (!inputs_ok || s->broken) continue;
-    try {
-      if (s->sides) {
-        r.lhs_si = s->lhs.Eval();
-        r.rhs_si = s->rhs.Eval();
-        if (!std::isfinite(r.lhs_si) || !std::isfinite(r.rhs_si)) continue;
-        const double l = r.lhs_si, h = r.rhs_si;
-        switch (c.expr->kind) {
-          case ExprKind::kLt:
-            r.pass = l < h;
-            r.margin_si = h - l;
-            break;
-          case ExprKind::kLe:
-            r.pass = l <= h;
-            r.margin_si = h - l;
-            break;
-          case ExprKind::kGt:
-            r.pass = l > h;
-            r.margin_si = l - h;
-            break;
-          case ExprKind::kGe:
-            r.pass = l >= h;
-            r.margin_si = l - h;
-            break;
-          case ExprKind::kEq:
-            r.pass = NearlyEqual(l, h);
-            r.margin_si = -std::fabs(l - h);
-            break;
-          case ExprKind::kNe:
-            r.pass = !NearlyEqual(l, h);
-            r.margin_si = std::fabs(l - h);
-            break;
-          default:
-            break;
-        }
+  for (const auto& s : checks_) RunCheck(*s, (*out)[static_cast<size_t>(s->check)], failed);
+  for (const auto& chunk : check_chunks_) {
+    const double* v = nullptr;
+    if (!chunk->failed) {
+      try {
+        int n = 0;
+        v = chunk->parser.Eval(n);
+        chunk->failed = n != chunk->values;
+      } catch (const mu::ParserError&) {
+        chunk->failed = true;
+      }
+    }
+    if (chunk->failed) {
+      if (chunk->alone.empty()) {
+        for (const auto& slot : chunk->slots) chunk->alone.push_back(CompileCheck(slot.check));
+      }
+      for (const auto& s : chunk->alone)
+        RunCheck(*s, (*out)[static_cast<size_t>(s->check)], failed);
+      continue;
+    }
+    for (const auto& slot : chunk->slots) {
+      const CheckDef& c = model_.checks[static_cast<size_t>(slot.check)];
+      CheckResult& r = (*out)[static_cast<size_t>(slot.check)];
+      bool inputs_ok = true;
+      for (int d : c.deps) inputs_ok = inputs_ok && std::isfinite(frame_[static_cast<size_t>(d)]);
+      if (!inputs_ok) continue;
+      const double* x = v + slot.first;
+      if (slot.sides) {
+        if (!JudgeSides(c.expr->kind, x[0], x[1], r)) continue;
       } else {
-        const double v = s->whole.Eval();
-        if (!std::isfinite(v)) continue;
-        r.pass = v != 0.0;
+        if (!std::isfinite(x[0])) continue;
+        r.pass = x[0] != 0.0;
       }
       r.evaluated = true;
       if (!r.pass) ++*failed;
-    } catch (const mu::ParserError&) {
-      r.evaluated = false;
     }
   }
 }

@@ -56,8 +56,9 @@ class Program {
   // quantity into *out (out->values untouched).
   void RunAll(CaseResult* out);
 
-  // Evaluates the checks against the current frame.
-  void RunChecks(std::vector<CheckResult>* out, int* failed) const;
+  // Evaluates the checks against the current frame.  Not const: a chunk of
+  // checks that fails to evaluate is recompiled check by check on the spot.
+  void RunChecks(std::vector<CheckResult>* out, int* failed);
 
   int failed_step() const { return failed_step_; }
   const QuantityMessage& failure() const { return failure_; }
@@ -81,10 +82,13 @@ class Program {
  private:
   struct Step;
   struct CheckStep;
+  struct CheckChunk;
 
   void Build(bool with_checks);
   bool EvalChunk(Step& s, std::string* error);
   QuantityMessage Explain(int quantity) const;
+  std::unique_ptr<CheckStep> CompileCheck(int check);
+  void RunCheck(const CheckStep& s, CheckResult& r, int* failed) const;
 
   const Model& model_;
   std::vector<int> steps_idx_;
@@ -92,7 +96,8 @@ class Program {
   double* frame_ = nullptr;
   std::vector<std::unique_ptr<Step>> extra_;
   std::vector<std::unique_ptr<Step>> steps_;
-  std::vector<std::unique_ptr<CheckStep>> checks_;
+  std::vector<std::unique_ptr<CheckStep>> checks_;  // compiled alone (too long for a chunk)
+  std::vector<std::unique_ptr<CheckChunk>> check_chunks_;
   std::vector<std::unique_ptr<CallSite>> sites_;
   std::vector<std::unique_ptr<TableSite>> table_sites_;
   std::vector<Recorded> recorded_;
