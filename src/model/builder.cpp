@@ -195,7 +195,10 @@ class Builder {
           }
           const int idx = AddQuantity(std::move(q));
           if (idx >= 0) {
-            scope_of_[model_->quantities[static_cast<size_t>(idx)].expr] = scope;
+            if (scope_of_.size() <= static_cast<size_t>(idx)) {
+              scope_of_.resize(static_cast<size_t>(idx) + 1);
+            }
+            scope_of_[static_cast<size_t>(idx)] = std::move(scope);
             AddItem(Section::Item::Kind::kQuantity, idx);
           }
           break;
@@ -207,7 +210,6 @@ class Builder {
           c.description = s.attrs.description;
           c.prefix = prefix;
           c.section = CurrentSection();
-          scope_of_[s.expr] = prefix;
           model_->checks.push_back(std::move(c));
           AddItem(Section::Item::Kind::kCheck, static_cast<int>(model_->checks.size()) - 1);
           break;
@@ -250,8 +252,6 @@ class Builder {
             d.unknown = idx;
             d.lhs = s.expr;
             d.rhs = s.expr2;
-            scope_of_[s.expr] = prefix;
-            scope_of_[s.expr2] = prefix;
             model_->solves.push_back(d);
             AddItem(Section::Item::Kind::kSolve, static_cast<int>(model_->solves.size()) - 1);
           }
@@ -420,21 +420,19 @@ class Builder {
     for (size_t i = 0; i < model_->quantities.size(); ++i) {
       Quantity& q = model_->quantities[i];
       if (q.expr == nullptr) continue;
-      std::set<int> deps;
-      Resolve(q.expr, scope_of_[q.expr], deps);
-      q.deps.assign(deps.begin(), deps.end());
+      static const std::string kNoScope;
+      Resolve(q.expr, i < scope_of_.size() ? scope_of_[i] : kNoScope, q.deps);
+      SortUnique(q.deps);
     }
     for (CheckDef& c : model_->checks) {
-      std::set<int> deps;
-      Resolve(c.expr, c.prefix, deps);
-      c.deps.assign(deps.begin(), deps.end());
+      Resolve(c.expr, c.prefix, c.deps);
+      SortUnique(c.deps);
     }
     for (SolveDef& d : model_->solves) {
-      std::set<int> deps;
       const std::string& prefix = model_->quantities[static_cast<size_t>(d.unknown)].prefix;
-      Resolve(d.lhs, prefix, deps);
-      Resolve(d.rhs, prefix, deps);
-      d.deps.assign(deps.begin(), deps.end());
+      Resolve(d.lhs, prefix, d.deps);
+      Resolve(d.rhs, prefix, d.deps);
+      SortUnique(d.deps);
     }
   }
 
@@ -474,7 +472,16 @@ class Builder {
     return false;
   }
 
-  void Resolve(const Expr* e, const std::string& prefix, std::set<int>& deps) {
+  // Sorted and unique, as a std::set would give them, without a tree node
+  // per name read.
+  static void SortUnique(std::vector<int>& v) {
+    std::sort(v.begin(), v.end());
+    v.erase(std::unique(v.begin(), v.end()), v.end());
+  }
+
+  // Resolves names and calls; appends the quantities read to deps (with
+  // repeats; the caller sorts them).
+  void Resolve(const Expr* e, const std::string& prefix, std::vector<int>& deps) {
     if (e == nullptr) return;
     ExprInfo& info = model_->info[e];
     switch (e->kind) {
@@ -485,7 +492,7 @@ class Builder {
         const int q = model_->Find(prefix + name);
         if (q >= 0) {
           info.quantity = q;
-          deps.insert(q);
+          deps.push_back(q);
           return;
         }
         const auto& consts = BuiltinConstants();
@@ -1496,7 +1503,9 @@ class Builder {
   std::vector<std::unique_ptr<Deck>>* keep_;
   Diagnostics& diags_;
   std::unique_ptr<Model> model_;
-  std::unordered_map<const Expr*, std::string> scope_of_;
+  // Per quantity: the prefix its expression's names resolve in (the using
+  // deck's for a bound template input).
+  std::vector<std::string> scope_of_;
   std::string_view main_file_;
   std::vector<std::string> use_stack_;
   std::set<std::string> used_prefixes_;
