@@ -34,20 +34,7 @@ case "${1:-}" in
     ;;
 esac
 
-tools/install-deps.sh
-# What the benchmarks need besides the build dependencies.
-missing=()
-for p in libbenchmark-dev time; do
-  dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")
-done
-if ((${#missing[@]} > 0)); then
-  echo "bench: installing ${missing[*]}" >&2
-  sudo=""
-  if [[ $(id -u) -ne 0 ]]; then sudo="sudo"; fi
-  export DEBIAN_FRONTEND=noninteractive
-  $sudo apt-get update -qq
-  $sudo apt-get install -y -qq --no-install-recommends "${missing[@]}" >/dev/null
-fi
+tools/install-deps.sh --bench
 
 build=${HEATDECK_BENCH_BUILD:-build-bench}
 shared=${HEATDECK_SHARED:-../shared}

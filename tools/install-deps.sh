@@ -2,12 +2,16 @@
 # Installs the Debian packages heatdeck needs, skipping those already there.
 #   tools/install-deps.sh          build and run
 #   tools/install-deps.sh --test   also what the test suite needs
+#   tools/install-deps.sh --bench  also what tools/bench.sh needs
 set -euo pipefail
 
 pkgs=(build-essential cmake pkg-config libmuparser-dev libpugixml-dev libxlsxwriter-dev
       libcli11-dev libfmt-dev nlohmann-json3-dev nettle-dev)
 if [[ "${1:-}" == "--test" ]]; then
   pkgs+=(libgtest-dev libgmock-dev python3 libreoffice-calc-nogui)
+fi
+if [[ "${1:-}" == "--bench" ]]; then
+  pkgs+=(libbenchmark-dev time)
 fi
 
 missing=()
