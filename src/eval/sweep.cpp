@@ -114,19 +114,19 @@ size_t RunSweep(const Model& model, const Plan& plan,
         double* row = rows.data() + (p - first) * ncol;
         for (size_t c = 0; c < ncol; ++c) row[c] = frame[static_cast<size_t>(options.columns[c])];
       }
-      if (formats) {
+      if (formats) {  // outside the ordered turn: this is the part that runs in parallel
         bytes.clear();
         for (size_t p = first; p < last; ++p) {
           sink.Format(p, rows.data() + (p - first) * ncol, errors[p - first], &bytes);
         }
-        order.WaitTurn(b);
-        sink.Write(bytes);
-        order.Done();
-        continue;
       }
       order.WaitTurn(b);
-      for (size_t p = first; p < last; ++p) {
-        sink.Point(p, rows.data() + (p - first) * ncol, errors[p - first]);
+      if (formats) {
+        sink.Write(bytes);
+      } else {
+        for (size_t p = first; p < last; ++p) {
+          sink.Point(p, rows.data() + (p - first) * ncol, errors[p - first]);
+        }
       }
       order.Done();
     }
