@@ -322,11 +322,31 @@ void Evaluator::PrepareSweep(const std::vector<int>& varying) {
       propagate();
     }
   }
-  std::vector<int> steps;
-  for (int q : plan_.stage_steps[0]) {
-    if (dirty[static_cast<size_t>(q)]) steps.push_back(q);
+  // A grid runs its last sweep line fastest: from one point to the next only
+  // the inner inputs change.  So stage 0's varying steps are split by the
+  // innermost sweep line they depend on (their level), and a point re-runs
+  // only the levels at and inside the outermost line that changed.  On B1,
+  // whose inner line is the length, the friction factors and film
+  // coefficients are then computed once per 101 points instead of at each.
+  std::vector<int> level(n, -1);
+  for (size_t j = 0; j < varying.size(); ++j)
+    level[static_cast<size_t>(varying[j])] = static_cast<int>(j);
+  for (int qi : model_.order) {
+    const size_t q = static_cast<size_t>(qi);
+    for (int d : model_.quantities[q].deps)
+      level[q] = std::max(level[q], level[static_cast<size_t>(d)]);
   }
-  sweep_stage0_ = std::make_unique<Program>(model_, steps, frame_.data(), false);
+  std::vector<std::vector<int>> steps(std::max<size_t>(1, varying.size()));
+  for (int q : plan_.stage_steps[0]) {
+    if (dirty[static_cast<size_t>(q)] && level[static_cast<size_t>(q)] >= 0) {
+      steps[static_cast<size_t>(level[static_cast<size_t>(q)])].push_back(q);
+    }
+  }
+  sweep_levels_.clear();
+  for (auto& st : steps) {
+    sweep_levels_.push_back(std::make_unique<Program>(model_, std::move(st), frame_.data(), false));
+  }
+  sweep_stale_ = 0;
   sweep_solves_.clear();
   for (size_t k = 0; k < solves_.size(); ++k) {
     const SolveDef& d = model_.solves[static_cast<size_t>(solves_[k]->solve)];
@@ -334,9 +354,16 @@ void Evaluator::PrepareSweep(const std::vector<int>& varying) {
   }
 }
 
-bool Evaluator::EvaluatePoint(std::string* error) {
-  if (!sweep_stage0_->Run()) {
-    *error = sweep_stage0_->failure().text;
+bool Evaluator::EvaluatePoint(std::string* error, int changed) {
+  // Levels before `changed` still hold this point's values, unless one of
+  // them failed at the last point (it then holds NaN, and must run again).
+  const size_t from = static_cast<size_t>(std::max(0, std::min(changed, sweep_stale_)));
+  sweep_stale_ = static_cast<int>(sweep_levels_.size());
+  for (size_t j = from; j < sweep_levels_.size(); ++j) {
+    if (sweep_levels_[j]->Run()) continue;
+    *error = sweep_levels_[j]->failure().text;
+    sweep_stale_ = static_cast<int>(j);
+    for (size_t k = j + 1; k < sweep_levels_.size(); ++k) sweep_levels_[k]->ClearSteps();
     return false;
   }
   for (int k : sweep_solves_) {

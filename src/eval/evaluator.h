@@ -43,12 +43,16 @@ class Evaluator {
   void EvaluateCase(CaseResult* out);
 
   // For sweeps: after EvaluateCase() on the sweep's base, restricts later
-  // EvaluatePoint() calls to what depends on `varying` inputs.
+  // EvaluatePoint() calls to what depends on `varying` inputs (the swept
+  // quantities, outermost sweep line first).
   void PrepareSweep(const std::vector<int>& varying);
   // Re-evaluates the dependent stages with the frame's current inputs.
-  // Returns false and sets *error (naming the quantity and values) when a
-  // quantity or a solve fails; the frame then holds NaN where it failed.
-  bool EvaluatePoint(std::string* error);
+  // `changed` is the index in `varying` of the outermost input that changed
+  // since this evaluator's last point (0, the default, re-runs everything
+  // that varies).  Returns false and sets *error (naming the quantity and
+  // values) when a quantity or a solve fails; the frame then holds NaN where
+  // it failed and for what was not evaluated after it.
+  bool EvaluatePoint(std::string* error, int changed = 0);
 
  private:
   struct SolveStage;
@@ -62,7 +66,8 @@ class Evaluator {
   std::unique_ptr<Program> checks_;
   std::vector<std::unique_ptr<SolveStage>> solves_;  // in plan order
   // Sweep fast path.
-  std::unique_ptr<Program> sweep_stage0_;
+  std::vector<std::unique_ptr<Program>> sweep_levels_;  // by innermost sweep line read
+  int sweep_stale_ = 0;            // first level whose values are not the last point's
   std::vector<int> sweep_solves_;  // indices into solves_ to re-run per point
 };
 

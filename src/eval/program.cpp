@@ -477,15 +477,30 @@ bool Program::EvalChunk(Step& s, std::string* error) {
   }
 }
 
+void Program::ClearFrom(size_t chunk, int quantity) {
+  bool after = quantity < 0;
+  for (size_t c = chunk; c < steps_.size(); ++c) {
+    for (int q : steps_[c]->quantities) {
+      after = after || q == quantity;
+      if (after) frame_[static_cast<size_t>(q)] = kNaN;
+    }
+  }
+}
+
 bool Program::Run() {
   failed_step_ = -1;
   failure_ = QuantityMessage{};
-  for (auto& s : steps_) {
+  // Only the last run's messages are kept: a sweep runs a program a million
+  // times, and a correlation that warns at every point must not pile up.
+  recorded_.clear();
+  for (size_t c = 0; c < steps_.size(); ++c) {
+    Step* s = steps_[c].get();
     library_error_ = false;
     const size_t rec_before = recorded_.size();
     std::string internal;
     if (!EvalChunk(*s, &internal)) {
       failed_step_ = s->quantities.front();
+      ClearFrom(c + 1, -1);
       failure_ = QuantityMessage{
           QuantityMessage::Kind::kError,
           fmt::format("cannot evaluate '{}': {}",
@@ -504,6 +519,9 @@ bool Program::Run() {
       if (!std::isfinite(frame_[static_cast<size_t>(q)]) || lib_error) {
         failed_step_ = q;
         failure_ = Explain(q);
+        // What comes after the failure was not evaluated at these inputs
+        // (later chunks did not run at all): NaN, not the last point's values.
+        ClearFrom(c, q);
         return false;
       }
     }

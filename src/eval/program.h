@@ -49,7 +49,8 @@ class Program {
 
   // Evaluates the steps in order.  Returns true when every step gave a
   // finite value; otherwise stops at the first failing step and returns
-  // false (failed_step() tells which, failure() why, naming the values).
+  // false (failed_step() tells which, failure() why, naming the values),
+  // with NaN in the frame for the failing step and every step after it.
   bool Run();
   // Like Run(), but a failing quantity does not stop the others: it gets NaN
   // and so do the quantities that read it.  Messages are recorded per
@@ -60,10 +61,14 @@ class Program {
   // checks that fails to evaluate is recompiled check by check on the spot.
   void RunChecks(std::vector<CheckResult>* out, int* failed);
 
+  // Sets every step's value in the frame to NaN (not evaluated).
+  void ClearSteps() { ClearFrom(0, -1); }
+
   int failed_step() const { return failed_step_; }
   const QuantityMessage& failure() const { return failure_; }
 
-  // Warnings and notes recorded by library calls during the last Run(),
+  // Warnings and notes recorded by library calls during the last Run() (or
+  // RunAll()),
   // as (quantity, message) in call order.
   struct Recorded {
     int quantity;
@@ -86,6 +91,9 @@ class Program {
 
   void Build(bool with_checks);
   bool EvalChunk(Step& s, std::string* error);
+  // NaN for the steps of chunks[chunk…] from `quantity` on (all of them
+  // when quantity < 0).
+  void ClearFrom(size_t chunk, int quantity);
   QuantityMessage Explain(int quantity) const;
   std::unique_ptr<CheckStep> CompileCheck(int check);
   void RunCheck(const CheckStep& s, CheckResult& r, int* failed) const;

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <atomic>
 #include <condition_variable>
+#include <cstdint>
 #include <limits>
 #include <mutex>
 #include <thread>
@@ -89,7 +90,9 @@ size_t RunSweep(const Model& model, const Plan& plan,
     double* frame = ev.frame();
     std::vector<double> rows(block * ncol);
     std::vector<std::string> errors(block);
-    std::vector<size_t> digit(model.sweeps.size());
+    // The grid digits of this worker's last point: a point re-evaluates only
+    // from the outermost sweep line whose digit changed.
+    std::vector<size_t> digit(model.sweeps.size()), seen(model.sweeps.size(), SIZE_MAX);
     const bool formats = sink.Formats();
     std::string bytes;
     for (;;) {
@@ -105,12 +108,15 @@ size_t RunSweep(const Model& model, const Plan& plan,
           digit[s] = rest % n;
           rest /= n;
         }
-        for (size_t s = 0; s < model.sweeps.size(); ++s) {
+        size_t changed = 0;
+        while (changed < digit.size() && digit[changed] == seen[changed]) ++changed;
+        for (size_t s = changed; s < model.sweeps.size(); ++s) {
           frame[static_cast<size_t>(model.sweeps[s].quantity)] = model.sweeps[s].values[digit[s]];
+          seen[s] = digit[s];
         }
         std::string& err = errors[p - first];
         err.clear();
-        if (!ev.EvaluatePoint(&err)) failures.fetch_add(1);
+        if (!ev.EvaluatePoint(&err, static_cast<int>(changed))) failures.fetch_add(1);
         double* row = rows.data() + (p - first) * ncol;
         for (size_t c = 0; c < ncol; ++c) row[c] = frame[static_cast<size_t>(options.columns[c])];
       }

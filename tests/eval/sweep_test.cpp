@@ -1,13 +1,15 @@
 // Sweeps through the public Session: the grid's values against a hand
-// derivation, and the same rows, errors and streamed bytes whatever the
-// number of worker threads.  tools/tsan.sh runs these under ThreadSanitizer
-// to show that the workers share nothing they write.
+// derivation, every point against a fresh evaluation of its inputs, and the
+// same rows, errors and streamed bytes whatever the number of worker threads.  tools/tsan.sh runs
+// these under ThreadSanitizer to show that the workers share nothing they write.
 #include <cmath>
 #include <string>
 #include <vector>
 
 #include <gtest/gtest.h>
 
+#include "eval/evaluator.h"
+#include "eval/program.h"
 #include "eval/results.h"
 #include "heatdeck/session.h"
 #include "model/model.h"
@@ -115,6 +117,108 @@ TEST(Sweep, SameRowsErrorsAndBytesWhateverTheThreadCount) {
       EXPECT_TRUE(a[c] == b[c] || (std::isnan(a[c]) && std::isnan(b[c]))) << p << "," << c;
     }
   }
+}
+
+// Three sweep lines and quantities at every level of the grid: r0 and the
+// p_i read only the outer line a, s1 and u1 also b, t2 and w2 all three, k
+// none.  Forty p_i put the level-0 quantities in more than one compiled
+// chunk.  Points fail at each level: sqrt(a) for a < 0, ln(b) at b = 0,
+// sqrt(c) for c < 0.
+std::string LevelsDeck() {
+  std::string d = "title \"Grid levels\"\ngiven a = 1\ngiven b = 1\ngiven c = 1\nr0 = sqrt(a)\n";
+  for (int i = 1; i <= 40; ++i)
+    d += "p_" + std::to_string(i) + " = r0 + " + std::to_string(i) + "\n";
+  d += "s1 = r0 * b + p_40\nu1 = ln(b)\nt2 = s1 + sqrt(c)\nw2 = p_39 * c + u1\nk = 2 * 3\n";
+  d += "sweep a from -1 to 2 step 1\nsweep b from 0 to 3 step 1\nsweep c from -2 to 2 step 1\n";
+  return d;
+}
+
+bool SameOrBothNaN(double x, double y) { return x == y || (std::isnan(x) && std::isnan(y)); }
+
+// A point re-evaluates only the quantities that read a sweep line that
+// changed since the last point (the inner line changes at every point, the
+// outer ones rarely).  Whatever it skips, each point's row must be what a
+// fresh evaluation of the deck at that point's inputs gives, failing points
+// included: NaN for what failed or was not evaluated, never the previous
+// point's values.
+TEST(Sweep, EachPointEqualsAFreshEvaluationOfItsInputs) {
+  for (int jobs : {1, 3}) {
+    SessionOptions o;
+    o.jobs = jobs;
+    Session s;
+    ASSERT_TRUE(s.LoadText("levels.deck", LevelsDeck(), o));
+    s.Evaluate();
+    const Model& m = s.model();
+    const Plan plan = MakePlan(m);
+    ASSERT_EQ(s.results().sweeps.size(), 1u);
+    const SweepResult& sw = s.results().sweeps[0];
+    ASSERT_EQ(sw.points, 4u * 4u * 5u);
+    ASSERT_EQ(sw.rows.size(), sw.points);
+    const int a = m.Find("a"), b = m.Find("b"), c = m.Find("c");
+    size_t failed = 0;
+    for (size_t p = 0; p < sw.points; ++p) {
+      const double va = -1.0 + static_cast<double>(p / 20);
+      const double vb = static_cast<double>(p / 5 % 4);
+      const double vc = -2.0 + static_cast<double>(p % 5);
+      Evaluator fresh(m, plan);
+      fresh.LoadInputs({{a, va}, {b, vb}, {c, vc}});
+      CaseResult cr;
+      fresh.EvaluateCase(&cr);
+      bool any_failed = false;
+      for (size_t q = 0; q < m.quantities.size(); ++q) any_failed = any_failed || !cr.ok[q];
+      // By hand: a = -1 fails everywhere, then b = 0, then c < 0.
+      const bool expect_fail = va < 0 || vb == 0 || vc < 0;
+      EXPECT_EQ(any_failed, expect_fail) << "point " << p;
+      EXPECT_EQ(!sw.row_errors[p].empty(), expect_fail)
+          << "point " << p << ": " << sw.row_errors[p];
+      failed += expect_fail;
+      for (size_t col = 0; col < sw.columns.size(); ++col) {
+        const auto q = static_cast<size_t>(sw.columns[col]);
+        const double got = sw.rows[p][col];
+        if (!cr.ok[q]) {
+          EXPECT_TRUE(std::isnan(got))
+              << "point " << p << " " << m.quantities[q].name << " = " << got;
+        } else if (!sw.row_errors[p].empty()) {
+          // After the first failure a point stops: a value is either not
+          // evaluated (NaN) or this point's own.
+          EXPECT_TRUE(std::isnan(got) || got == cr.values[q])
+              << "point " << p << " " << m.quantities[q].name << " = " << got;
+        } else {
+          EXPECT_TRUE(SameOrBothNaN(got, cr.values[q]))
+              << "point " << p << " " << m.quantities[q].name << " = " << got << " vs "
+              << cr.values[q];
+        }
+      }
+      if (p == 21) {  // a = 0, b = 0, c = -1: ln(0) is the first failure
+        EXPECT_NE(sw.row_errors[p].find("'u1'"), std::string::npos) << sw.row_errors[p];
+      }
+    }
+    // 20 points with a = -1; 3 x 5 with b = 0; 3 x 3 x 2 with c < 0.
+    EXPECT_EQ(failed, 20u + 15u + 18u);
+  }
+}
+
+// A library function that warns at every point of a sweep: the program
+// keeps the messages of its last run only, so a million-point sweep holds
+// no more of them than one point does.
+TEST(Sweep, WarningsDoNotPileUpOverRuns) {
+  Session s;
+  ASSERT_TRUE(s.LoadText(
+      "warn.deck", "given Re = 3000\ngiven Pr = 0.3\nNu = nu_dittus_boelter(Re, Pr, 0.4)\n", {}));
+  ASSERT_TRUE(s.Evaluate());
+  const Model& m = s.model();
+  Program p(m, m.order);
+  p.LoadGivens();
+  ASSERT_TRUE(p.Run());
+  const size_t once = p.recorded().size();
+  // Re = 3000 < 10 000 and Pr = 0.3 < 0.6: outside the correlation's range
+  // (LIBRARY.md), so one run records at least one warning.
+  ASSERT_GE(once, 1u);
+  for (int i = 0; i < 1000; ++i) {
+    p.values()[static_cast<size_t>(m.Find("Re"))] = 3000.0 + i;
+    ASSERT_TRUE(p.Run());
+  }
+  EXPECT_EQ(p.recorded().size(), once);
 }
 
 }  // namespace
