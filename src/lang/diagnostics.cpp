@@ -121,27 +121,45 @@ void AppendQuote(std::string& out, std::string_view line, int col, int last_col,
   } else if (line.size() > kMax) {
     shown = line.substr(0, kMax);
   }
+  // The line and its caret are appended whole and then mended in place:
+  // every diagnostic quotes up to 200 bytes, and a deck of garbage gives
+  // one diagnostic per bad byte.
   out += "  ";
+  const size_t quote_at = out.size();
+  out.append(shown);
   // Control bytes (an escape sequence could clear or recolour the
   // terminal) are shown as '?'; tabs stay so that the caret lines up.
-  for (char c : shown) {
-    const auto u = static_cast<unsigned char>(c);
-    out += (u < 0x20 && c != '\t') || u == 0x7F ? '?' : c;
-  }
+  std::replace_if(
+      out.begin() + static_cast<std::ptrdiff_t>(quote_at), out.end(),
+      [](char c) {
+        const auto u = static_cast<unsigned char>(c);
+        return (u < 0x20 && c != '\t') || u == 0x7F;
+      },
+      '?');
   out += '\n';
   out += "  ";
   // Columns count bytes; a terminal shows characters, so UTF-8
   // continuation bytes take no place under the line.
   auto continuation = [](char c) { return (static_cast<unsigned char>(c) & 0xC0) == 0x80; };
-  const size_t caret_at = static_cast<size_t>(col - 1) - begin;
-  for (size_t i = 0; i < caret_at && i < shown.size(); ++i) {
-    if (!continuation(shown[i])) out += shown[i] == '\t' ? '\t' : ' ';
-  }
+  const size_t caret_at = std::min(static_cast<size_t>(col - 1) - begin, shown.size());
+  const size_t pad_at = out.size();
+  out.append(shown.substr(0, caret_at));
+  out.erase(
+      std::remove_if(out.begin() + static_cast<std::ptrdiff_t>(pad_at), out.end(), continuation),
+      out.end());
+  std::replace_if(
+      out.begin() + static_cast<std::ptrdiff_t>(pad_at), out.end(),
+      [](char c) { return c != '\t'; }, ' ');
   if (colour) out += "\x1b[1;32m";
   out += '^';
-  const int last = std::max(last_col, col);
-  for (int i = col; i < last && static_cast<size_t>(i) - begin < shown.size(); ++i) {
-    if (!continuation(shown[static_cast<size_t>(i) - begin])) out += '~';
+  const size_t last = static_cast<size_t>(std::max(last_col, col)) - begin;
+  if (last > caret_at + 1) {
+    const std::string_view under =
+        shown.substr(std::min(caret_at + 1, shown.size()),
+                     std::min(last, shown.size()) - std::min(caret_at + 1, shown.size()));
+    out.append(static_cast<size_t>(std::count_if(under.begin(), under.end(),
+                                                 [&](char c) { return !continuation(c); })),
+               '~');
   }
   if (colour) out += "\x1b[0m";
   out += '\n';
