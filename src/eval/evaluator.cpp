@@ -158,12 +158,13 @@ bool Evaluator::RunSolve(SolveStage& st, bool record, SolveResult* result) {
   result->residual_lo = f_lo;
   result->residual_hi = f_hi;
   const units::Unit& ru = d.residual_unit;
-  auto show_x = [&](double v) {
-    return fmt::format("{} {}", units::FormatSig(xu.FromSi(v), 6), xu.text);
+  // A dimensionless value has no unit text, and so no space before it.
+  auto show = [](double v, const std::string& unit) {
+    return unit.empty() ? units::FormatSig(v, 6)
+                        : fmt::format("{} {}", units::FormatSig(v, 6), unit);
   };
-  auto show_r = [&](double r) {
-    return fmt::format("{} {}", units::FormatSig(r / ru.factor, 6), ru.text);
-  };
+  auto show_x = [&](double v) { return show(xu.FromSi(v), xu.text); };
+  auto show_r = [&](double r) { return show(r / ru.factor, ru.text); };
   if (!std::isfinite(f_lo) || !std::isfinite(f_hi)) {
     const bool lo_bad = !std::isfinite(f_lo);
     result->error =
@@ -355,6 +356,15 @@ void Evaluator::PrepareSweep(const std::vector<int>& varying) {
 }
 
 bool Evaluator::EvaluatePoint(std::string* error, int changed) {
+  // What a failure leaves unevaluated is NaN, never a value from the last
+  // point or from a solve's last bracket probe: solves from the i-th on.
+  auto clear_solves = [&](size_t i) {
+    for (; i < sweep_solves_.size(); ++i) {
+      SolveStage& st = *solves_[static_cast<size_t>(sweep_solves_[i])];
+      frame_[static_cast<size_t>(model_.solves[static_cast<size_t>(st.solve)].unknown)] = kNaN;
+      st.inner->ClearSteps();
+    }
+  };
   // Levels before `changed` still hold this point's values, unless one of
   // them failed at the last point (it then holds NaN, and must run again).
   const size_t from = static_cast<size_t>(std::max(0, std::min(changed, sweep_stale_)));
@@ -364,12 +374,14 @@ bool Evaluator::EvaluatePoint(std::string* error, int changed) {
     *error = sweep_levels_[j]->failure().text;
     sweep_stale_ = static_cast<int>(j);
     for (size_t k = j + 1; k < sweep_levels_.size(); ++k) sweep_levels_[k]->ClearSteps();
+    clear_solves(0);
     return false;
   }
-  for (int k : sweep_solves_) {
+  for (size_t i = 0; i < sweep_solves_.size(); ++i) {
     SolveResult r;
-    if (!RunSolve(*solves_[static_cast<size_t>(k)], false, &r)) {
+    if (!RunSolve(*solves_[static_cast<size_t>(sweep_solves_[i])], false, &r)) {
       *error = r.error;
+      clear_solves(i);
       return false;
     }
   }

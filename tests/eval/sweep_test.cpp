@@ -221,5 +221,34 @@ TEST(Sweep, WarningsDoNotPileUpOverRuns) {
   EXPECT_EQ(p.recorded().size(), once);
 }
 
+// A solve that finds no root at a point: the unknown and everything that
+// reads it are NaN in that row, not the values of the search's last probe.
+// The message of a dimensionless residual has no space before a missing
+// unit.
+TEST(Sweep, FailedSolveLeavesItsQuantitiesUnevaluated) {
+  Session s;
+  ASSERT_TRUE(s.LoadText("solve.deck",
+                         "given a = 4\ny = x * x\nz = y + 1\n"
+                         "solve x from 0 to 10 so that x * x = a\n"
+                         "sweep a from -2 to 4 step 2\n",
+                         {}));
+  s.Evaluate();
+  const Model& m = s.model();
+  const SweepResult& sw = s.results().sweeps.at(0);
+  ASSERT_EQ(sw.points, 4u);
+  for (size_t col = 0; col < sw.columns.size(); ++col) {
+    const std::string& name = m.quantities[static_cast<size_t>(sw.columns[col])].name;
+    if (name == "a") continue;
+    EXPECT_TRUE(std::isnan(sw.rows[0][col])) << name << " = " << sw.rows[0][col];
+    // a = 4: x = 2 within the solve's 1e-10 relative tolerance; y = x^2, z = y + 1.
+    const double want = name == "x" ? 2.0 : name == "y" ? 4.0 : 5.0;
+    EXPECT_NEAR(sw.rows[3][col], want, 1e-8) << name;
+  }
+  EXPECT_EQ(sw.row_errors[0],
+            "solve for 'x': no sign change over the bracket; lhs - rhs = 2.00000 at x = 0 and "
+            "102.000 at x = 10.0000");
+  EXPECT_EQ(sw.row_errors[3], "");
+}
+
 }  // namespace
 }  // namespace heatdeck
