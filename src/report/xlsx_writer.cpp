@@ -6,6 +6,7 @@
 #include <deque>
 #include <map>
 #include <set>
+#include <string_view>
 
 #include <fmt/format.h>
 
@@ -70,12 +71,18 @@ time_t CreatedTime(const std::string& date) {
   return static_cast<time_t>(DaysFromCivil(y, m, d) * 86400);
 }
 
-// Cuts text to what a cell holds, at a UTF-8 character boundary.
+// Cuts text to what a cell holds, at a UTF-8 character boundary, and says
+// so at the end: a reviewer must not take a cut description for the whole.
+// (The limit counts bytes, which is never fewer than the UTF-16 units a
+// spreadsheet counts.)
 std::string CellText(std::string s) {
   if (s.size() <= kMaxCellChars) return s;
-  size_t n = kMaxCellChars;
+  static constexpr std::string_view kCut =
+      " … [cut: a cell holds 32 767 characters; the HTML report has the whole text]";
+  size_t n = kMaxCellChars - kCut.size();
   while (n > 0 && (static_cast<unsigned char>(s[n]) & 0xC0) == 0x80) --n;
   s.resize(n);
+  s += kCut;
   return s;
 }
 

@@ -7,6 +7,7 @@
 #include <chrono>
 #include <cmath>
 #include <filesystem>
+#include <fstream>
 #include <map>
 #include <regex>
 #include <string>
@@ -406,6 +407,41 @@ TEST(XlsxWriter, DeckTextBeginningWithAFormulaSignIsTextOnEverySheet) {
     EXPECT_GT(seen[t], 0) << "'" << t << "' is not in the workbook";
   // The title heads the summary, the calculation and the case's sheet.
   EXPECT_EQ(seen[texts[0]], 3);
+}
+
+// A description longer than a cell holds (40 000 bytes of two-byte 'é'):
+// the cell keeps what fits, cut between characters, and ends by saying it
+// was cut.
+TEST(XlsxWriter, TextLongerThanACellHoldsIsCutVisibly) {
+  TempFolder dir("xlsx_long_text");
+  std::string long_text = "Start of a long description ";
+  while (long_text.size() < 40000) long_text += "\xC3\xA9";  // é
+  const std::string deck = dir.path() + "/long.deck";
+  {
+    std::ofstream f(deck, std::ios::binary);
+    f << "title \"Long text\"\ngiven m = 1 kg/s \"" << long_text << "\"\nQ = m * 2 J/kg\n";
+  }
+  const std::string path = WriteWorkbook(deck, dir.path());
+  ASSERT_FALSE(path.empty());
+  const json book = DumpWorkbook(path);
+  int cut = 0;
+  for (const auto& sheet : book["sheets"]) {
+    for (const auto& [ref, cell] : sheet["cells"].items()) {
+      if (!cell.contains("v") || !cell["v"].is_string()) continue;
+      const std::string v = cell["v"];
+      if (v.rfind("Start of a long description", 0) != 0) continue;
+      ++cut;
+      EXPECT_LE(v.size(), 32767u) << ref;
+      const std::string tail = "the HTML report has the whole text]";
+      ASSERT_GE(v.size(), tail.size());
+      EXPECT_EQ(v.substr(v.size() - tail.size()), tail) << ref;
+      // Only whole characters before the note: "é" pairs, then " … [cut".
+      const size_t note = v.find(" \xE2\x80\xA6 [cut");
+      ASSERT_NE(note, std::string::npos) << ref;
+      EXPECT_EQ((note - 28) % 2, 0u) << ref;  // 28 bytes of "Start of …description "
+    }
+  }
+  EXPECT_GT(cut, 0) << "the description is not in the workbook";
 }
 
 }  // namespace
