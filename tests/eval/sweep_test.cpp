@@ -13,6 +13,7 @@
 #include "eval/results.h"
 #include "heatdeck/session.h"
 #include "model/model.h"
+#include "test_paths.h"
 
 namespace heatdeck {
 namespace {
@@ -248,6 +249,59 @@ TEST(Sweep, FailedSolveLeavesItsQuantitiesUnevaluated) {
             "solve for 'x': no sign change over the bracket; lhs - rhs = 2.00000 at x = 0 and "
             "102.000 at x = 10.0000");
   EXPECT_EQ(sw.row_errors[3], "");
+}
+
+// Two example decks (templates, property functions, a root search at every
+// point) given more sweep lines, so that their grids have levels: every
+// point against a fresh evaluation of the deck at that point's inputs, bit
+// for bit where it evaluated.
+TEST(Sweep, ExampleGridsEqualFreshEvaluationsPointByPoint) {
+  struct Grid {
+    const char* deck;
+    const char* extra;  // appended: inner sweep lines
+    size_t points;
+  };
+  const Grid grids[] = {
+      {"condensate_recovery_length.deck",
+       "sweep T_h1 over 70 degC, 90 degC\nsweep Rf_h over 0.00009 m^2*K/W, 0.0005 m^2*K/W\n",
+       5u * 2u * 2u},
+      {"preheat_coil_sweep.deck", "sweep T_out over -20 degC, -12 degC, 0 degC\n", 12u * 3u},
+  };
+  for (const Grid& g : grids) {
+    const std::string path = heatdeck::testing::RepoDir() + "/examples/" + g.deck;
+    const std::string text = heatdeck::testing::ReadFile(path) + g.extra;
+    Session s;
+    ASSERT_TRUE(s.LoadText(path, text, {})) << g.deck;
+    s.Evaluate();
+    const Model& m = s.model();
+    const Plan plan = MakePlan(m);
+    ASSERT_EQ(s.results().sweeps.size(), 1u) << g.deck;
+    const SweepResult& sw = s.results().sweeps[0];
+    ASSERT_EQ(sw.points, g.points) << g.deck;
+    ASSERT_EQ(sw.rows.size(), g.points) << g.deck;
+    for (size_t p = 0; p < sw.points; ++p) {
+      // The swept inputs lead each row; the first sweep line varies slowest.
+      std::vector<std::pair<int, double>> inputs;
+      for (size_t k = 0; k < sw.swept.size(); ++k) inputs.emplace_back(sw.swept[k], sw.rows[p][k]);
+      Evaluator fresh(m, plan);
+      fresh.LoadInputs(inputs);
+      CaseResult cr;
+      fresh.EvaluateCase(&cr);
+      // Every point of these grids evaluates (the root searches bracket).
+      EXPECT_EQ(sw.row_errors[p], "") << g.deck << " point " << p;
+      for (size_t col = 0; col < sw.columns.size(); ++col) {
+        const auto q = static_cast<size_t>(sw.columns[col]);
+        const double got = sw.rows[p][col];
+        if (!cr.ok[q]) {
+          EXPECT_TRUE(std::isnan(got)) << g.deck << " point " << p << " " << m.quantities[q].name;
+        } else if (sw.row_errors[p].empty()) {
+          EXPECT_TRUE(SameOrBothNaN(got, cr.values[q]))
+              << g.deck << " point " << p << " " << m.quantities[q].name << " = " << got << " vs "
+              << cr.values[q];
+        }
+      }
+    }
+  }
 }
 
 }  // namespace
