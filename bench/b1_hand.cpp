@@ -10,7 +10,14 @@
 // with (tools/bench.sh, target P1).
 //
 //   b1_hand OUT.csv [N_M_H N_M_C N_L]
+//   b1_hand --levels OUT.csv [N_M_H N_M_C N_L]
 //   b1_hand --base     the base case, for the README's table
+//
+// The plain loop computes every formula at every point: the limit of the
+// issue's P1 target.  With --levels it computes each group of formulas only
+// when a sweep line it reads changes, as heatdeck's sweeps do; tools/bench.sh
+// prints that comparison too (for information: it shows what heatdeck's
+// interpreter costs once both skip the same work).
 //
 // The optional counts shorten the sweep lines to their first N values (the
 // smoke run of tools/bench.sh uses a generated deck with the same starts and
@@ -74,46 +81,65 @@ struct Values {
   double R_tot, UA, U_o, C_h, C_c, C_min, C_max, Cr, NTU, eps, Q, T_h2, T_c2, dT_lm;
 };
 
-// The deck's formulas, in its order.
+// The deck's formulas, in four groups by the sweep lines they read: the hot
+// side reads m_h, the cold side m_c, the capacity rates both, the rest L as
+// well.  The plain loop runs all four at every point; with --levels each
+// group runs only when a line it reads changed (what heatdeck's sweep does).
+inline void EvaluateHot(const Givens& g, double m_h, Values* v) {
+  const double D_i = g.D_i, t_w = g.t_w, cp_h = g.cp_h, mu_h = g.mu_h, k_h = g.k_h;
+  v->D_o = D_i + 2 * t_w;
+  v->Re_h = 4 * m_h / (kPi * D_i * mu_h);
+  v->Pr_h = cp_h * mu_h / k_h;
+  v->f_h = std::pow(0.790 * std::log(v->Re_h) - 1.64, -2.0);
+  v->Nu_h = (v->f_h / 8) * (v->Re_h - 1000) * v->Pr_h /
+            (1 + 12.7 * std::sqrt(v->f_h / 8) * (std::pow(v->Pr_h, 2.0 / 3.0) - 1));
+  v->h_i = v->Nu_h * k_h / D_i;
+}
+
+inline void EvaluateCold(const Givens& g, double m_c, Values* v) {
+  const double D_a = g.D_a, cp_c = g.cp_c, mu_c = g.mu_c, k_c = g.k_c;
+  v->D_hyd = D_a - v->D_o;
+  v->A_fl = kPi / 4 * (D_a * D_a - v->D_o * v->D_o);
+  v->Re_c = m_c * v->D_hyd / (v->A_fl * mu_c);
+  v->Pr_c = cp_c * mu_c / k_c;
+  v->f_c = std::pow(0.790 * std::log(v->Re_c) - 1.64, -2.0);
+  v->Nu_c = (v->f_c / 8) * (v->Re_c - 1000) * v->Pr_c /
+            (1 + 12.7 * std::sqrt(v->f_c / 8) * (std::pow(v->Pr_c, 2.0 / 3.0) - 1));
+  v->h_o = v->Nu_c * k_c / v->D_hyd;
+}
+
+inline void EvaluateRates(const Givens& g, double m_h, double m_c, Values* v) {
+  v->C_h = m_h * g.cp_h;
+  v->C_c = m_c * g.cp_c;
+  v->C_min = v->C_h < v->C_c ? v->C_h : v->C_c;
+  v->C_max = v->C_h > v->C_c ? v->C_h : v->C_c;
+  v->Cr = v->C_min / v->C_max;
+}
+
+inline void EvaluateLength(const Givens& g, double L, Values* v) {
+  const double D_i = g.D_i, k_w = g.k_w, T_h1 = g.T_h1, T_c1 = g.T_c1;
+  const double D_o = v->D_o, h_i = v->h_i, h_o = v->h_o;
+  v->A_i = kPi * D_i * L;
+  v->A_o = kPi * D_o * L;
+  v->R_tot = 1 / (h_i * v->A_i) + g.Rf_i / v->A_i + std::log(D_o / D_i) / (2 * kPi * k_w * L) +
+             g.Rf_o / v->A_o + 1 / (h_o * v->A_o);
+  v->UA = 1 / v->R_tot;
+  v->U_o = v->UA / v->A_o;
+  v->NTU = v->UA / v->C_min;
+  const double NTU = v->NTU, Cr = v->Cr;
+  v->eps = (1 - std::exp(-NTU * (1 - Cr))) / (1 - Cr * std::exp(-NTU * (1 - Cr)));
+  v->Q = v->eps * v->C_min * (T_h1 - T_c1);
+  v->T_h2 = T_h1 - v->Q / v->C_h;
+  v->T_c2 = T_c1 + v->Q / v->C_c;
+  const double T_h2 = v->T_h2, T_c2 = v->T_c2;
+  v->dT_lm = ((T_h1 - T_c2) - (T_h2 - T_c1)) / std::log((T_h1 - T_c2) / (T_h2 - T_c1));
+}
+
 inline void Evaluate(const Givens& g, double m_h, double m_c, double L, Values* v) {
-  const double D_i = g.D_i, t_w = g.t_w, k_w = g.k_w, D_a = g.D_a, T_h1 = g.T_h1, T_c1 = g.T_c1;
-  const double cp_h = g.cp_h, mu_h = g.mu_h, k_h = g.k_h, cp_c = g.cp_c, mu_c = g.mu_c;
-  const double k_c = g.k_c, Rf_i = g.Rf_i, Rf_o = g.Rf_o;
-  const double D_o = D_i + 2 * t_w;
-  const double Re_h = 4 * m_h / (kPi * D_i * mu_h);
-  const double Pr_h = cp_h * mu_h / k_h;
-  const double f_h = std::pow(0.790 * std::log(Re_h) - 1.64, -2.0);
-  const double Nu_h = (f_h / 8) * (Re_h - 1000) * Pr_h /
-                      (1 + 12.7 * std::sqrt(f_h / 8) * (std::pow(Pr_h, 2.0 / 3.0) - 1));
-  const double h_i = Nu_h * k_h / D_i;
-  const double D_hyd = D_a - D_o;
-  const double A_fl = kPi / 4 * (D_a * D_a - D_o * D_o);
-  const double Re_c = m_c * D_hyd / (A_fl * mu_c);
-  const double Pr_c = cp_c * mu_c / k_c;
-  const double f_c = std::pow(0.790 * std::log(Re_c) - 1.64, -2.0);
-  const double Nu_c = (f_c / 8) * (Re_c - 1000) * Pr_c /
-                      (1 + 12.7 * std::sqrt(f_c / 8) * (std::pow(Pr_c, 2.0 / 3.0) - 1));
-  const double h_o = Nu_c * k_c / D_hyd;
-  const double A_i = kPi * D_i * L;
-  const double A_o = kPi * D_o * L;
-  const double R_tot = 1 / (h_i * A_i) + Rf_i / A_i + std::log(D_o / D_i) / (2 * kPi * k_w * L) +
-                       Rf_o / A_o + 1 / (h_o * A_o);
-  const double UA = 1 / R_tot;
-  const double U_o = UA / A_o;
-  const double C_h = m_h * cp_h;
-  const double C_c = m_c * cp_c;
-  const double C_min = C_h < C_c ? C_h : C_c;
-  const double C_max = C_h > C_c ? C_h : C_c;
-  const double Cr = C_min / C_max;
-  const double NTU = UA / C_min;
-  const double eps = (1 - std::exp(-NTU * (1 - Cr))) / (1 - Cr * std::exp(-NTU * (1 - Cr)));
-  const double Q = eps * C_min * (T_h1 - T_c1);
-  const double T_h2 = T_h1 - Q / C_h;
-  const double T_c2 = T_c1 + Q / C_c;
-  const double dT_lm = ((T_h1 - T_c2) - (T_h2 - T_c1)) / std::log((T_h1 - T_c2) / (T_h2 - T_c1));
-  *v = Values{D_o,   Re_h,  Pr_h, f_h, Nu_h, h_i,   D_hyd, A_fl, Re_c, Pr_c,
-              f_c,   Nu_c,  h_o,  A_i, A_o,  R_tot, UA,    U_o,  C_h,  C_c,
-              C_min, C_max, Cr,   NTU, eps,  Q,     T_h2,  T_c2, dT_lm};
+  EvaluateHot(g, m_h, v);
+  EvaluateCold(g, m_c, v);
+  EvaluateRates(g, m_h, m_c, v);
+  EvaluateLength(g, L, v);
 }
 
 // The base case (the deck as written) for comparison with the README's table.
@@ -133,8 +159,13 @@ int PrintBase() {
 
 int main(int argc, char** argv) {
   if (argc == 2 && std::string(argv[1]) == "--base") return PrintBase();
+  const bool levels = argc > 1 && std::string(argv[1]) == "--levels";
+  if (levels) {
+    --argc;
+    ++argv;
+  }
   if (argc != 2 && argc != 5) {
-    std::fprintf(stderr, "usage: b1_hand OUT.csv [N_M_H N_M_C N_L] | b1_hand --base\n");
+    std::fprintf(stderr, "usage: b1_hand [--levels] OUT.csv [N_M_H N_M_C N_L] | b1_hand --base\n");
     return 2;
   }
   const long lim_h = argc == 5 ? std::atol(argv[2]) : 0;
@@ -155,11 +186,20 @@ int main(int argc, char** argv) {
   fmt::memory_buffer buf;
   fmt::format_to(std::back_inserter(buf),
                  "m_h [kg/s],m_c [kg/s],L [m],Q [kW],T_h2 [degC],T_c2 [degC],error\n");
+  Values v{};
   for (const double m_h : sweep_m_h) {
+    if (levels) EvaluateHot(g, m_h, &v);
     for (const double m_c : sweep_m_c) {
+      if (levels) {
+        EvaluateCold(g, m_c, &v);
+        EvaluateRates(g, m_h, m_c, &v);
+      }
       for (const double L : sweep_L) {
-        Values v;
-        Evaluate(g, m_h, m_c, L, &v);
+        if (levels) {
+          EvaluateLength(g, L, &v);
+        } else {
+          Evaluate(g, m_h, m_c, L, &v);
+        }
         // U_o and dT_lm are not written; the checksum keeps every quantity
         // computed.
         checksum += v.U_o + v.dT_lm;

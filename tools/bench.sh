@@ -135,6 +135,8 @@ if [[ -r $shared/bench/README.md ]]; then
 fi
 echo "  hand loop's base case vs the README's table: $base"
 hand=$(timed $reps "hand loop (b1_hand, -O2)" -- "$bin/b1_hand" "${hand_args[@]}")
+levels_args=("$work/hand_levels.csv" "${hand_args[@]:1}")
+hand_levels=$(timed $reps "hand loop, --levels" -- "$bin/b1_hand" --levels "${levels_args[@]}")
 hd1=$(timed $reps "heatdeck -j 1" -- "$hd" run "$deck" -f csv -o "$work/j1" -j 1 "${cols[@]}")
 hdn=$(timed $reps "heatdeck -j $jobs" -- "$hd" run "$deck" -f csv -o "$work/jn" -j "$jobs" "${cols[@]}")
 points=$(($(wc -l <"$work/hand.csv") - 1))
@@ -146,6 +148,15 @@ t_n=$(field "$hdn" wall_median)
 printf '  %d points; points/s (wall): hand %s, heatdeck -j 1 %s, heatdeck -j %d %s\n' "$points" \
   "$(calc "$points / $t_hand")" "$(calc "$points / $t_1")" "$jobs" "$(calc "$points / $t_n")"
 echo "  for information, by process time (cpu) instead of wall: -j 1 vs hand $(calc "$(field "$hand" cpu_median) / $(field "$hd1" cpu_median)")"
+# heatdeck's sweep skips the formulas whose inputs did not change from one
+# point to the next; the plain hand loop (the target's limit) does not.  The
+# loop that skips the same work shows what the interpreter itself costs.
+echo "  for information, against a hand loop that skips the same work (b1_hand --levels):" \
+  "-j 1 vs hand --levels $(calc "$(field "$hand_levels" wall_median) / $t_1") (wall)"
+if ! cmp -s "$work/hand.csv" "$work/hand_levels.csv"; then
+  echo "bench: b1_hand --levels wrote a different CSV from the plain loop" >&2
+  exit 1
+fi
 agree=$("$bin/csv_compare" "$work/hand.csv" "$csv1" 1e-9) && agree_ok=1 || agree_ok=0
 echo "  hand vs -j 1:   $agree"
 if cmp -s "$csv1" "$csvn"; then
