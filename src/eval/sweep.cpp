@@ -5,6 +5,7 @@
 #include <condition_variable>
 #include <cstdint>
 #include <limits>
+#include <map>
 #include <mutex>
 #include <thread>
 
@@ -38,26 +39,62 @@ std::vector<int> DefaultSweepColumns(const Model& model) {
 
 namespace {
 
-// Blocks are computed by any worker but emitted in order: a worker that
-// finishes block b waits until every block before b has been emitted.
-class Ordered {
+// A finished block of points: its rows and errors, and its bytes when the
+// sink formats them.
+struct Block {
+  size_t first = 0, last = 0;
+  std::vector<double> rows;
+  std::vector<std::string> errors;
+  std::string bytes;
+};
+
+// Blocks are computed by any worker and emitted in grid order.  A worker
+// that finishes a block out of turn leaves it here and goes on computing
+// (waiting for its turn idled a fast CPU behind a slow one); whoever hands
+// in the block that is due emits it and every block queued after it.  At
+// most `limit` blocks wait, so memory stays bounded; the block that is due
+// is always accepted, so nothing waits for itself.
+class Reorder {
  public:
-  void WaitTurn(size_t block) {
+  Reorder(size_t limit, SweepSink& sink) : limit_(limit), sink_(sink) {}
+
+  void HandIn(size_t index, Block block) {
     std::unique_lock<std::mutex> lock(mu_);
-    cv_.wait(lock, [&] { return next_ == block; });
-  }
-  void Done() {
-    {
-      std::lock_guard<std::mutex> lock(mu_);
+    cv_.wait(lock, [&] { return index == next_ || waiting_.size() < limit_; });
+    waiting_.emplace(index, std::move(block));
+    if (emitting_) return;
+    emitting_ = true;
+    for (auto it = waiting_.find(next_); it != waiting_.end(); it = waiting_.find(next_)) {
+      Block due = std::move(it->second);
+      waiting_.erase(it);
+      lock.unlock();
+      Emit(due);
+      lock.lock();
       ++next_;
+      cv_.notify_all();
     }
-    cv_.notify_all();
+    emitting_ = false;
   }
 
  private:
+  void Emit(const Block& b) {
+    if (sink_.Formats()) {
+      sink_.Write(b.bytes);
+      return;
+    }
+    const size_t ncol = b.last > b.first ? b.rows.size() / (b.last - b.first) : 0;
+    for (size_t p = b.first; p < b.last; ++p) {
+      sink_.Point(p, b.rows.data() + (p - b.first) * ncol, b.errors[p - b.first]);
+    }
+  }
+
+  const size_t limit_;
+  SweepSink& sink_;
   std::mutex mu_;
   std::condition_variable cv_;
+  std::map<size_t, Block> waiting_;
   size_t next_ = 0;
+  bool emitting_ = false;
 };
 
 }  // namespace
@@ -79,7 +116,7 @@ size_t RunSweep(const Model& model, const Plan& plan,
 
   std::atomic<size_t> next_block{0};
   std::atomic<size_t> failures{0};
-  Ordered order;
+  Reorder order(4 * static_cast<size_t>(jobs), sink);
 
   auto worker = [&] {
     Evaluator ev(model, plan);
@@ -88,18 +125,22 @@ size_t RunSweep(const Model& model, const Plan& plan,
     ev.EvaluateCase(&scratch);
     ev.PrepareSweep(swept);
     double* frame = ev.frame();
-    std::vector<double> rows(block * ncol);
-    std::vector<std::string> errors(block);
     // The grid digits of this worker's last point: a point re-evaluates only
     // from the outermost sweep line whose digit changed.
     std::vector<size_t> digit(model.sweeps.size()), seen(model.sweeps.size(), SIZE_MAX);
     const bool formats = sink.Formats();
-    std::string bytes;
     for (;;) {
       const size_t b = next_block.fetch_add(1);
       if (b >= blocks) break;
       const size_t first = begin + b * block;
       const size_t last = std::min(end, first + block);
+      Block done;
+      done.first = first;
+      done.last = last;
+      done.rows.resize((last - first) * ncol);
+      done.errors.resize(last - first);
+      std::vector<double>& rows = done.rows;
+      std::vector<std::string>& errors = done.errors;
       for (size_t p = first; p < last; ++p) {
         // Mixed-radix digits of p: the first sweep line varies slowest.
         size_t rest = p;
@@ -120,21 +161,12 @@ size_t RunSweep(const Model& model, const Plan& plan,
         double* row = rows.data() + (p - first) * ncol;
         for (size_t c = 0; c < ncol; ++c) row[c] = frame[static_cast<size_t>(options.columns[c])];
       }
-      if (formats) {  // outside the ordered turn: this is the part that runs in parallel
-        bytes.clear();
+      if (formats) {  // in the worker: this is the part that runs in parallel
         for (size_t p = first; p < last; ++p) {
-          sink.Format(p, rows.data() + (p - first) * ncol, errors[p - first], &bytes);
+          sink.Format(p, rows.data() + (p - first) * ncol, errors[p - first], &done.bytes);
         }
       }
-      order.WaitTurn(b);
-      if (formats) {
-        sink.Write(bytes);
-      } else {
-        for (size_t p = first; p < last; ++p) {
-          sink.Point(p, rows.data() + (p - first) * ncol, errors[p - first]);
-        }
-      }
-      order.Done();
+      order.HandIn(b, std::move(done));
     }
   };
   if (jobs == 1) {
