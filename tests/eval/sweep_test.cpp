@@ -11,6 +11,7 @@
 #include "eval/evaluator.h"
 #include "eval/program.h"
 #include "eval/results.h"
+#include "eval/sweep.h"
 #include "heatdeck/session.h"
 #include "model/model.h"
 #include "test_paths.h"
@@ -301,6 +302,47 @@ TEST(Sweep, ExampleGridsEqualFreshEvaluationsPointByPoint) {
         }
       }
     }
+  }
+}
+
+// Blocks of one point and more workers than the queue of finished blocks
+// holds per worker: blocks finish out of turn all the time, wait in the
+// queue or for room in it, and must still reach the sink once each, in grid
+// order, with the values of a one-worker run.
+TEST(Sweep, BlocksFinishedOutOfTurnReachTheSinkInOrder) {
+  Session s;
+  ASSERT_TRUE(s.LoadText("heater.deck", kDeck, {}));
+  s.Evaluate();
+  const Model& m = s.model();
+  const Plan plan = MakePlan(m);
+  struct Collect : SweepSink {
+    std::vector<size_t> order;
+    std::vector<double> values;
+    std::vector<std::string> errors;
+    void Point(size_t index, const double* v, const std::string& error) override {
+      order.push_back(index);
+      values.insert(values.end(), v, v + 3);
+      errors.push_back(error);
+    }
+  };
+  auto run = [&](int jobs, size_t block) {
+    SweepOptions o;
+    o.jobs = jobs;
+    o.block = block;
+    o.columns = {m.Find("m"), m.Find("T_out"), m.Find("dT_ln")};
+    Collect c;
+    RunSweep(m, plan, {}, o, c);
+    return c;
+  };
+  const Collect one = run(1, 512);
+  const Collect many = run(4, 1);
+  ASSERT_EQ(one.order.size(), 20u * 141u);
+  ASSERT_EQ(many.order.size(), one.order.size());
+  for (size_t i = 0; i < many.order.size(); ++i) ASSERT_EQ(many.order[i], i);
+  EXPECT_EQ(many.errors, one.errors);
+  ASSERT_EQ(many.values.size(), one.values.size());
+  for (size_t i = 0; i < one.values.size(); ++i) {
+    EXPECT_TRUE(SameOrBothNaN(many.values[i], one.values[i])) << i;
   }
 }
 
