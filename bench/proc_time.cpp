@@ -1,10 +1,12 @@
 // Times a command run many times, for the whole-process comparisons of
 // tools/bench.sh (hyperfine is not assumed).
 //
-//   proc_time [-n RUNS] [-w WARMUP] [-o OUT] -- COMMAND [ARGS…]
+//   proc_time [-n RUNS] [-w WARMUP] [-o OUT] [-c CPU] -- COMMAND [ARGS…]
 //
 // Each run is forked and exec'd directly (no shell); its standard output goes
-// to OUT (default /dev/null), standard error is kept.  Wall time comes from
+// to OUT (default /dev/null), standard error is kept; with -c it runs on that
+// CPU only (set in the child before exec, so no pinning tool's start-up is
+// counted).  Wall time comes from
 // CLOCK_MONOTONIC, user + system time and peak RSS from wait4()'s rusage,
 // all per run.  Prints one line of key=value pairs:
 //
@@ -13,6 +15,7 @@
 // (seconds; maxrss_kb the largest over the runs; status the last non-zero
 // exit status, or 0).  Exits 0 unless the command could not be started.
 #include <fcntl.h>
+#include <sched.h>
 #include <sys/resource.h>
 #include <sys/wait.h>
 #include <unistd.h>
@@ -49,11 +52,20 @@ struct Run {
   int status = 0;
 };
 
-bool RunOnce(char** argv, const char* out, Run* r) {
+bool RunOnce(char** argv, const char* out, int cpu, Run* r) {
   const double t0 = Now();
   const pid_t pid = fork();
   if (pid < 0) return false;
   if (pid == 0) {
+    if (cpu >= 0) {
+      cpu_set_t set;
+      CPU_ZERO(&set);
+      CPU_SET(cpu, &set);
+      if (sched_setaffinity(0, sizeof set, &set) != 0) {
+        std::fprintf(stderr, "proc_time: cannot pin to CPU %d: %s\n", cpu, std::strerror(errno));
+        _exit(127);
+      }
+    }
     const int fd = open(out, O_WRONLY | O_CREAT | O_TRUNC, 0644);
     if (fd >= 0) {
       dup2(fd, 1);
@@ -76,7 +88,7 @@ bool RunOnce(char** argv, const char* out, Run* r) {
 }  // namespace
 
 int main(int argc, char** argv) {
-  int runs = 1, warmup = 0;
+  int runs = 1, warmup = 0, pin_cpu = -1;
   const char* out = "/dev/null";
   int i = 1;
   for (; i < argc; ++i) {
@@ -92,24 +104,27 @@ int main(int argc, char** argv) {
       warmup = std::max(0, std::atoi(argv[++i]));
     } else if (a == "-o") {
       out = argv[++i];
+    } else if (a == "-c") {
+      pin_cpu = std::atoi(argv[++i]);
     } else {
       break;
     }
   }
   if (i >= argc) {
-    std::fprintf(stderr, "usage: proc_time [-n RUNS] [-w WARMUP] [-o OUT] -- COMMAND [ARGS...]\n");
+    std::fprintf(stderr,
+                 "usage: proc_time [-n RUNS] [-w WARMUP] [-o OUT] [-c CPU] -- COMMAND [ARGS...]\n");
     return 2;
   }
   char** cmd = argv + i;
   Run r;
   for (int k = 0; k < warmup; ++k) {
-    if (!RunOnce(cmd, out, &r)) return 2;
+    if (!RunOnce(cmd, out, pin_cpu, &r)) return 2;
   }
   std::vector<double> wall, cpu;
   long maxrss = 0;
   int last_bad = 0;
   for (int k = 0; k < runs; ++k) {
-    if (!RunOnce(cmd, out, &r)) return 2;
+    if (!RunOnce(cmd, out, pin_cpu, &r)) return 2;
     wall.push_back(r.wall);
     cpu.push_back(r.cpu);
     maxrss = std::max(maxrss, r.maxrss_kb);

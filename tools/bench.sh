@@ -81,11 +81,14 @@ calc() { awk "BEGIN { printf \"%.6g\", $1 }"; }
 holds() { awk "BEGIN { exit !($1) }" && echo 1 || echo 0; }
 median() { printf '%s\n' "$@" | sort -g | awk '{ v[NR] = $1 } END { print (NR % 2) ? v[(NR + 1) / 2] : (v[NR / 2] + v[NR / 2 + 1]) / 2 }'; }
 # timed RUNS LABEL -- COMMAND…: proc_time's line, and a check of the exit status.
+# The runs are pinned to CPU $TIMED_CPU when it is set.
 timed() {
   local runs=$1 label=$2
   shift 3
   local line
-  line=$("$bin/proc_time" -n "$runs" -- "$@" 2>"$work/stderr") || {
+  local pin_args=()
+  [[ -n ${TIMED_CPU:-} ]] && pin_args=(-c "$TIMED_CPU")
+  line=$("$bin/proc_time" -n "$runs" "${pin_args[@]}" -- "$@" 2>"$work/stderr") || {
     cat "$work/stderr" >&2
     echo "bench: $label: could not run" >&2
     exit 1
@@ -148,25 +151,25 @@ levels_args=("$work/hand_levels.csv" "${hand_args[@]:1}")
 # than the other), so the one-thread runs are pinned to the fastest CPU:
 # the hand loop and heatdeck -j 1 meet on the same CPU, and -j N is compared
 # with the best one thread can do.
-pin=()
-if ((!smoke)) && command -v taskset >/dev/null; then
+# (The one-thread runs of P2 and P3 are pinned to the same CPU.)
+if ((!smoke)); then
   best="" best_t=""
   for ((c = 0; c < jobs; c++)); do
-    line=$(timed 1 "hand loop on CPU $c" -- taskset -c "$c" "$bin/b1_hand" "${hand_args[@]}")
+    line=$(TIMED_CPU=$c timed 1 "hand loop on CPU $c" -- "$bin/b1_hand" "${hand_args[@]}")
     t=$(field "$line" wall_median)
     if [[ -z $best_t ]] || [[ $(holds "$t < $best_t") == 1 ]]; then
       best=$c best_t=$t
     fi
   done
-  pin=(taskset -c "$best")
+  TIMED_CPU=$best
   echo "  one-thread runs below are pinned to CPU $best, the fastest of the $jobs here"
 fi
 w_hand=() w_levels=() w_1=() w_n=()
 for ((round = 1; round <= rounds; round++)); do
-  hand=$(timed 1 "hand loop (b1_hand, -O2), round $round" -- "${pin[@]}" "$bin/b1_hand" "${hand_args[@]}")
-  hand_levels=$(timed 1 "hand loop, --levels, round $round" -- "${pin[@]}" "$bin/b1_hand" --levels "${levels_args[@]}")
-  hd1=$(timed 1 "heatdeck -j 1, round $round" -- "${pin[@]}" "$hd" run "$deck" -f csv -o "$work/j1" -j 1 "${cols[@]}")
-  hdn=$(timed 1 "heatdeck -j $jobs, round $round" -- "$hd" run "$deck" -f csv -o "$work/jn" -j "$jobs" "${cols[@]}")
+  hand=$(timed 1 "hand loop (b1_hand, -O2), round $round" -- "$bin/b1_hand" "${hand_args[@]}")
+  hand_levels=$(timed 1 "hand loop, --levels, round $round" -- "$bin/b1_hand" --levels "${levels_args[@]}")
+  hd1=$(timed 1 "heatdeck -j 1, round $round" -- "$hd" run "$deck" -f csv -o "$work/j1" -j 1 "${cols[@]}")
+  hdn=$(TIMED_CPU="" timed 1 "heatdeck -j $jobs, round $round" -- "$hd" run "$deck" -f csv -o "$work/jn" -j "$jobs" "${cols[@]}")
   w_hand+=("$(field "$hand" wall_median)")
   w_levels+=("$(field "$hand_levels" wall_median)")
   w_1+=("$(field "$hd1" wall_median)")
