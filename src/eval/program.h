@@ -67,9 +67,8 @@ class Program {
   int failed_step() const { return failed_step_; }
   const QuantityMessage& failure() const { return failure_; }
 
-  // Warnings and notes recorded by library calls during the last Run() (or
-  // RunAll()),
-  // as (quantity, message) in call order.
+  // Warnings and notes recorded by library calls during the last Run() or
+  // RunAll(), as (quantity, message) in call order.
   struct Recorded {
     int quantity;
     QuantityMessage message;
