@@ -5,9 +5,8 @@
 //   Lex        the lexer alone, token by token to the end
 //   Parse      lexer + parser: text to syntax tree
 //   Build      resolution + dimension checking: syntax tree to Model
-//   Compile    the evaluation plan and the evaluator's muParser programs,
-//              with their first evaluation: muParser turns an expression into
-//              bytecode on its first Eval(), so this is where compiling happens
+//   Compile    the evaluation plan and the evaluator's compiled programs,
+//              with their first evaluation
 //   EvalCase   a full evaluation of the base case (every message), again
 //   EvalPoint  one sweep point on the fast path (B1 only), cycling the grid
 #include <benchmark/benchmark.h>

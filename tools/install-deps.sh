@@ -5,7 +5,7 @@
 #   tools/install-deps.sh --bench  also what tools/bench.sh needs
 set -euo pipefail
 
-pkgs=(build-essential cmake pkg-config libmuparser-dev libpugixml-dev libxlsxwriter-dev
+pkgs=(build-essential cmake pkg-config libpugixml-dev libxlsxwriter-dev
       libcli11-dev libfmt-dev nlohmann-json3-dev nettle-dev)
 if [[ "${1:-}" == "--test" ]]; then
   pkgs+=(libgtest-dev libgmock-dev python3 libreoffice-calc-nogui)

@@ -5,7 +5,6 @@
 #include <limits>
 
 #include <fmt/format.h>
-#include "eval/expr_parser.h"
 
 #include "units/unit.h"
 
@@ -13,11 +12,6 @@ namespace heatdeck {
 namespace {
 
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
-
-// Quantities per compiled chunk: large enough that per-call overhead is
-// spread, small enough that a failure is cheap to locate.
-constexpr size_t kChunk = 32;
-constexpr size_t kMaxText = 19000;
 
 // Relative tolerance of == in checks (LANGUAGE.md: "== within 1e-9 relative").
 constexpr double kEqualTol = 1e-9;
@@ -63,11 +57,6 @@ bool JudgeSides(ExprKind kind, double l, double h, CheckResult& r) {
   return true;
 }
 
-std::string Num(double v) {
-  const std::string s = units::FormatExact(v);
-  return v < 0 ? "(" + s + ")" : s;
-}
-
 }  // namespace
 
 // A library call site: which function, on behalf of which quantity.
@@ -96,10 +85,7 @@ struct Program::CallSite : library::Sink {
         Recorded{quantity, QuantityMessage{QuantityMessage::Kind::kNote, static_text, {}}});
   }
 
-  static double Trampoline(void* data, const double* args, int /*n*/) {
-    auto* site = static_cast<CallSite*>(data);
-    return site->fn->fn(args, *site);
-  }
+  double Call(const double* args) { return fn->fn(args, *this); }
 };
 
 // A table interpolation site: NAME.COLUMN(x).
@@ -110,8 +96,8 @@ struct Program::TableSite {
   SourceRange range;  // the call in the deck
   Program* program = nullptr;
 
-  static double Trampoline(void* data, double x) {
-    auto* site = static_cast<TableSite*>(data);
+  double At(double x) {
+    TableSite* site = this;
     double v = kNaN;
     if (site->table->table.Interpolate(site->column, x, &v)) return v;
     const auto& cols = site->table->table.columns;
@@ -133,153 +119,330 @@ struct Program::TableSite {
   }
 };
 
-// Consecutive calculated quantities compiled into one muParser expression
-// of assignments, "q5=(…),q6=(…),…": one parser and one Eval() call per
-// chunk instead of per quantity.  Assignments run left to right, so a
-// quantity may read one computed earlier in the same chunk.
-struct Program::Step {
-  ExprParser parser;
-  std::string compile_error;  // set when the chunk could not be compiled
-  std::vector<int> quantities;
-  std::vector<std::string> texts;  // each quantity's expression text
+// Why a hand-written stack machine rather than an expression library: the
+// model already holds every expression as a typed tree with its units folded
+// to SI, so what is left is evaluation alone.  Compiling through an
+// expression-string library meant writing each tree back out as text and
+// having the library tokenise it again: at 100 000 statements that round
+// trip was over 40 % of checking a deck, its parsers most of the memory, and
+// its 20 000-character limit split long expressions.  The instruction set
+// below is the deck language's own operators, no more.
+enum class Op : uint8_t {
+  kConst,  // push c
+  kLoad,   // push frame[a]
+  kNeg,
+  kAdd,
+  kSub,
+  kMul,
+  kDiv,
+  kPow,
+  kSquare,  // x^2, x^3, x^4 of a quantity: repeated products
+  kCube,
+  kFourth,
+  kLt,
+  kLe,
+  kGt,
+  kGe,
+  kNear,  // == within kEqualTol relative
+  kFar,   // != likewise
+  kNot,   // x == 0
+  kAnd,   // both operands are evaluated, and NaN counts as true (C++ truth)
+  kOr,
+  kFn,   // f(x), a one-argument built-in
+  kMin,  // of the top a values, NaN propagating
+  kMax,
+  kJumpIfZero,  // pop; jump to a when it was 0 (if's condition)
+  kJump,        // jump to a
+  kCall,        // library call site a over the c arguments on the stack
+  kTable,       // table interpolation site a
+  // Fused: the right operand read straight from the frame (a) or the
+  // constant (c), saving a push per operator.
+  kAddLoad,
+  kSubLoad,
+  kMulLoad,
+  kDivLoad,
+  kAddConst,
+  kSubConst,
+  kMulConst,
+  kDivConst,
 };
 
-struct Program::CheckStep {
-  int check = -1;
-  ExprParser whole;  // the full condition (1 or 0)
-  ExprParser lhs, rhs;
-  bool sides = false;
-  bool broken = false;
+struct Program::Ins {
+  Op op = Op::kConst;
+  int32_t a = 0;
+  double c = 0.0;
+  double (*f)(double) = nullptr;
 };
 
-// Checks compiled together like quantities: one muParser expression list
-// "lhs0,rhs0,whole1,…" (both sides of a comparison, else the condition)
-// evaluated in one call.  A parser per check cost three parser
-// constructions and three first-evaluation set-ups per check, most of the
-// compile time of a deck with many checks.  Should the list fail to
-// evaluate, its checks are compiled alone, as before, so that only the
-// faulty one is reported as not evaluated.
-struct Program::CheckChunk {
-  ExprParser parser;
-  bool failed = false;
-  struct Slot {
-    int check = -1;
-    bool sides = false;
-    int first = 0;  // index of its first value in the list's results
-  };
-  std::vector<Slot> slots;
-  int values = 0;                                 // results the list gives
-  std::vector<std::unique_ptr<CheckStep>> alone;  // after a failure, per slot
-};
+namespace {
 
-// Translates typed expressions to muParser text.  Each variable a parser
-// reads is defined on that parser alone, so compile cost stays linear in the
-// size of the deck.
-class Translator {
+double Min(const double* a, int n) {
+  double v = a[0];
+  for (int i = 1; i < n; ++i) v = std::isnan(a[i]) || a[i] < v ? a[i] : v;
+  return v;
+}
+double Max(const double* a, int n) {
+  double v = a[0];
+  for (int i = 1; i < n; ++i) v = std::isnan(a[i]) || a[i] > v ? a[i] : v;
+  return v;
+}
+double Near(double a, double b) {
+  // |a-b| <= tol*max(|a|,|b|), a NaN side making it false.
+  const double fa = std::fabs(a), fb = std::fabs(b);
+  const double m = std::isnan(fb) || fb > fa ? fb : fa;
+  return std::fabs(a - b) <= kEqualTol * m ? 1.0 : 0.0;
+}
+
+double (*UnaryBuiltin(Builtin id))(double) {
+  switch (id) {
+    case Builtin::kAbs:
+      return [](double x) { return std::fabs(x); };
+    case Builtin::kSqrt:
+      return [](double x) { return std::sqrt(x); };
+    case Builtin::kExp:
+      return [](double x) { return std::exp(x); };
+    case Builtin::kLn:
+      return [](double x) { return std::log(x); };
+    case Builtin::kLog10:
+      return [](double x) { return std::log10(x); };
+    case Builtin::kSin:
+      return [](double x) { return std::sin(x); };
+    case Builtin::kCos:
+      return [](double x) { return std::cos(x); };
+    case Builtin::kTan:
+      return [](double x) { return std::tan(x); };
+    case Builtin::kAsin:
+      return [](double x) { return std::asin(x); };
+    case Builtin::kAcos:
+      return [](double x) { return std::acos(x); };
+    case Builtin::kAtan:
+      return [](double x) { return std::atan(x); };
+    case Builtin::kSinh:
+      return [](double x) { return std::sinh(x); };
+    case Builtin::kCosh:
+      return [](double x) { return std::cosh(x); };
+    case Builtin::kTanh:
+      return [](double x) { return std::tanh(x); };
+    default:
+      return nullptr;
+  }
+}
+
+const char* OpName(Op op) {
+  static const char* const kNames[] = {
+      "const",    "load",     "neg",          "add",       "sub",       "mul",       "div",
+      "pow",      "square",   "cube",         "fourth",    "lt",        "le",        "gt",
+      "ge",       "near",     "far",          "not",       "and",       "or",        "fn",
+      "min",      "max",      "jump_if_zero", "jump",      "call",      "table",     "add_load",
+      "sub_load", "mul_load", "div_load",     "add_const", "sub_const", "mul_const", "div_const"};
+  return kNames[static_cast<size_t>(op)];
+}
+
+}  // namespace
+
+// Emits a typed expression's code at the end of the program's code, in
+// evaluation order, tracking the stack depth it needs.
+class Program::Compiler {
  public:
-  Translator(const Model& m, ExprParser& p, double* values,
-             std::vector<std::unique_ptr<Program::CallSite>>* sites,
-             std::vector<std::unique_ptr<Program::TableSite>>* table_sites, Program* program,
-             int quantity, bool strict_equal)
-      : m_(m),
-        p_(p),
-        values_(values),
-        sites_(sites),
-        table_sites_(table_sites),
-        program_(program),
-        quantity_(quantity),
-        strict_equal_(strict_equal) {}
+  Compiler(Program& p, int quantity) : p_(p), m_(p.model_), quantity_(quantity) {}
 
-  std::string Text(const Expr* e) {
-    const ExprInfo& info = m_.Info(e);
-    if (info.literal) return Num(info.si);
-    switch (e->kind) {
-      case ExprKind::kNumber:
-        return Num(info.si);
-      case ExprKind::kName: {
-        if (info.constant >= 0) return Num(info.si);
-        const std::string var = fmt::format("q{}", info.quantity);
-        p_.DefineVar(var, values_ + info.quantity);
-        return var;
-      }
-      case ExprKind::kNeg:
-        return fmt::format("(-{})", Text(e->args[0]));
-      case ExprKind::kNot:
-        return fmt::format("({}==0)", Text(e->args[0]));
-      case ExprKind::kAnd:
-        return fmt::format("({}&&{})", Text(e->args[0]), Text(e->args[1]));
-      case ExprKind::kOr:
-        return fmt::format("({}||{})", Text(e->args[0]), Text(e->args[1]));
-      case ExprKind::kEq:
-      case ExprKind::kNe: {
-        const std::string a = Text(e->args[0]);
-        const std::string b = Text(e->args[1]);
-        if (strict_equal_) return fmt::format("({}{}{})", a, OperatorText(e->kind), b);
-        const std::string near = fmt::format("(abs({0}-{1})<=({2}*max(abs({0}),abs({1}))))", a, b,
-                                             units::FormatExact(kEqualTol));
-        return e->kind == ExprKind::kEq ? near : fmt::format("({}==0)", near);
-      }
-      case ExprKind::kCall:
-        return Call(e, info);
-      default:
-        return fmt::format("({}{}{})", Text(e->args[0]), OperatorText(e->kind), Text(e->args[1]));
-    }
+  Range Compile(const Expr* e) {
+    Range r;
+    r.begin = static_cast<uint32_t>(p_.code_.size());
+    Emit(e);
+    r.end = static_cast<uint32_t>(p_.code_.size());
+    if (p_.stack_.size() < static_cast<size_t>(max_depth_))
+      p_.stack_.resize(static_cast<size_t>(max_depth_));
+    return r;
   }
 
  private:
-  std::string Args(const Expr* e, size_t from) {
-    std::string s;
-    for (size_t i = from; i < e->args.size(); ++i) {
-      if (i > from) s += ",";
-      s += Text(e->args[i]);
+  void Push(Ins in) { p_.code_.push_back(in); }
+  void Grow(int n) {
+    depth_ += n;
+    max_depth_ = std::max(max_depth_, depth_);
+  }
+  void Const(double v) {
+    Push(Ins{Op::kConst, 0, v, nullptr});
+    Grow(1);
+  }
+  size_t Here() const { return p_.code_.size(); }
+
+  // A binary operator over the two values on the stack; when the right
+  // operand was a single load or constant, the fused form replaces it.
+  void Binary(Op op, size_t right_begin) {
+    const bool single = Here() == right_begin + 1;
+    const Ins last = p_.code_.back();
+    if (single && (last.op == Op::kLoad || last.op == Op::kConst)) {
+      Op fused = op;
+      const bool load = last.op == Op::kLoad;
+      switch (op) {
+        case Op::kAdd:
+          fused = load ? Op::kAddLoad : Op::kAddConst;
+          break;
+        case Op::kSub:
+          fused = load ? Op::kSubLoad : Op::kSubConst;
+          break;
+        case Op::kMul:
+          fused = load ? Op::kMulLoad : Op::kMulConst;
+          break;
+        case Op::kDiv:
+          fused = load ? Op::kDivLoad : Op::kDivConst;
+          break;
+        default:
+          break;
+      }
+      if (fused != op) {
+        p_.code_.back().op = fused;  // keeps a (frame index) and c (constant)
+        Grow(-1);
+        return;
+      }
     }
-    return s;
+    Push(Ins{op, 0, 0.0, nullptr});
+    Grow(-1);
   }
 
-  std::string Call(const Expr* e, const ExprInfo& info) {
+  void Emit(const Expr* e) {
+    const ExprInfo& info = m_.Info(e);
+    if (info.literal) return Const(info.si);
+    switch (e->kind) {
+      case ExprKind::kNumber:
+        return Const(info.si);
+      case ExprKind::kName:
+        if (info.constant >= 0) return Const(info.si);
+        Push(Ins{Op::kLoad, info.quantity, 0.0, nullptr});
+        return Grow(1);
+      case ExprKind::kNeg:
+        Emit(e->args[0]);
+        return Push(Ins{Op::kNeg, 0, 0.0, nullptr});
+      case ExprKind::kNot:
+        Emit(e->args[0]);
+        return Push(Ins{Op::kNot, 0, 0.0, nullptr});
+      case ExprKind::kCall:
+        return Call(e, info);
+      case ExprKind::kPow:
+        if (PowerOfQuantity(e)) return;
+        break;
+      default:
+        break;
+    }
+    Emit(e->args[0]);
+    const size_t right = Here();
+    Emit(e->args[1]);
+    Binary(BinaryOp(e->kind), right);
+  }
+
+  static Op BinaryOp(ExprKind k) {
+    switch (k) {
+      case ExprKind::kAdd:
+        return Op::kAdd;
+      case ExprKind::kSub:
+        return Op::kSub;
+      case ExprKind::kMul:
+        return Op::kMul;
+      case ExprKind::kDiv:
+        return Op::kDiv;
+      case ExprKind::kPow:
+        return Op::kPow;
+      case ExprKind::kLt:
+        return Op::kLt;
+      case ExprKind::kLe:
+        return Op::kLe;
+      case ExprKind::kGt:
+        return Op::kGt;
+      case ExprKind::kGe:
+        return Op::kGe;
+      case ExprKind::kEq:
+        return Op::kNear;
+      case ExprKind::kNe:
+        return Op::kFar;
+      case ExprKind::kAnd:
+        return Op::kAnd;
+      case ExprKind::kOr:
+        return Op::kOr;
+      default:
+        return Op::kAdd;  // not reached: every binary kind is listed
+    }
+  }
+
+  // q^2, q^3, q^4 of a quantity as repeated products (exact to rounding
+  // like any product, and cheaper than pow).
+  bool PowerOfQuantity(const Expr* e) {
+    const ExprInfo& base = m_.Info(e->args[0]);
+    const ExprInfo& ex = m_.Info(e->args[1]);
+    if (e->args[0]->kind != ExprKind::kName || base.literal || base.constant >= 0) return false;
+    if (!ex.literal && e->args[1]->kind != ExprKind::kNumber) return false;
+    Op op;
+    if (ex.si == 2.0) {
+      op = Op::kSquare;
+    } else if (ex.si == 3.0) {
+      op = Op::kCube;
+    } else if (ex.si == 4.0) {
+      op = Op::kFourth;
+    } else {
+      return false;
+    }
+    Emit(e->args[0]);
+    Push(Ins{op, 0, 0.0, nullptr});
+    return true;
+  }
+
+  void Call(const Expr* e, const ExprInfo& info) {
+    const int n = static_cast<int>(e->args.size());
     if (info.builtin >= 0) {
       const BuiltinInfo& b = BuiltinFunctions()[static_cast<size_t>(info.builtin)];
       if (b.id == Builtin::kIf) {
-        return fmt::format("({}?{}:{})", Text(e->args[0]), Text(e->args[1]), Text(e->args[2]));
+        // Only the branch taken is evaluated.
+        Emit(e->args[0]);
+        const size_t jz = Here();
+        Push(Ins{Op::kJumpIfZero, 0, 0.0, nullptr});
+        Grow(-1);
+        Emit(e->args[1]);
+        const size_t j = Here();
+        Push(Ins{Op::kJump, 0, 0.0, nullptr});
+        Grow(-1);
+        p_.code_[jz].a = static_cast<int32_t>(Here());
+        Emit(e->args[2]);
+        p_.code_[j].a = static_cast<int32_t>(Here());
+        return;
       }
-      if ((b.id == Builtin::kMin || b.id == Builtin::kMax) && e->args.size() == 1) {
-        return Text(e->args[0]);
+      for (const Expr* a : e->args) Emit(a);
+      if (b.id == Builtin::kMin || b.id == Builtin::kMax) {
+        if (n == 1) return;
+        Push(Ins{b.id == Builtin::kMin ? Op::kMin : Op::kMax, n, 0.0, nullptr});
+        return Grow(1 - n);
       }
-      return fmt::format("{}({})", b.name, Args(e, 0));
+      return Push(Ins{Op::kFn, 0, 0.0, UnaryBuiltin(b.id)});
     }
+    for (const Expr* a : e->args) Emit(a);
     if (info.table >= 0) {
-      auto site = std::make_unique<Program::TableSite>();
+      auto site = std::make_unique<TableSite>();
       site->table = &m_.tables[static_cast<size_t>(info.table)];
       site->column = info.column;
       site->range = e->range;
       site->quantity = quantity_;
-      site->program = program_;
-      const std::string name = fmt::format("t{}", table_sites_->size());
-      p_.DefineFunUserData(name, &Program::TableSite::Trampoline, site.get(), false);
-      table_sites_->push_back(std::move(site));
-      return fmt::format("{}({})", name, Args(e, 0));
+      site->program = &p_;
+      Push(Ins{Op::kTable, static_cast<int32_t>(p_.table_sites_.size()), 0.0, nullptr});
+      p_.table_sites_.push_back(std::move(site));
+      return Grow(1 - n);
     }
-    // A library function: its own callback name per call site, with the site
-    // as user data, so warnings land on the right quantity.
-    auto site = std::make_unique<Program::CallSite>();
+    // A library function: a call site of its own, so that warnings land on
+    // the right quantity.
+    auto site = std::make_unique<CallSite>();
     site->fn = info.fn;
     site->range = e->range;
     site->quantity = quantity_;
-    site->program = program_;
-    const std::string name = fmt::format("f{}", sites_->size());
-    p_.DefineFunUserData(name, &Program::CallSite::Trampoline, site.get(), false);
-    sites_->push_back(std::move(site));
-    return fmt::format("{}({})", name, Args(e, 0));
+    site->program = &p_;
+    Push(Ins{Op::kCall, static_cast<int32_t>(p_.sites_.size()), static_cast<double>(n), nullptr});
+    p_.sites_.push_back(std::move(site));
+    Grow(1 - n);
   }
 
+  Program& p_;
   const Model& m_;
-  ExprParser& p_;
-  double* values_;
-  std::vector<std::unique_ptr<Program::CallSite>>* sites_;
-  std::vector<std::unique_ptr<Program::TableSite>>* table_sites_;
-  Program* program_;
   int quantity_;
-  bool strict_equal_;
+  int depth_ = 0;
+  int max_depth_ = 1;
 };
 
 Program::Program(const Model& model, std::vector<int> steps)
@@ -293,28 +456,6 @@ Program::Program(const Model& model, std::vector<int> steps, double* frame, bool
   Build(with_checks);
 }
 
-int Program::AddExpression(const Expr* e) {
-  auto step = std::make_unique<Step>();
-  Translator t(model_, step->parser, frame_, &sites_, &table_sites_, this, -1, false);
-  step->texts.push_back(t.Text(e));
-  try {
-    step->parser.SetExpr(step->texts.back());
-  } catch (const mu::ParserError& err) {
-    step->compile_error = err.GetMsg();
-  }
-  extra_.push_back(std::move(step));
-  return static_cast<int>(extra_.size()) - 1;
-}
-
-double Program::Eval(int handle) {
-  if (!extra_[static_cast<size_t>(handle)]->compile_error.empty()) return kNaN;
-  try {
-    return extra_[static_cast<size_t>(handle)]->parser.Eval();
-  } catch (const mu::ParserError&) {
-    return kNaN;
-  }
-}
-
 Program::~Program() = default;
 
 std::unique_ptr<Program> Program::Clone() const {
@@ -323,125 +464,175 @@ std::unique_ptr<Program> Program::Clone() const {
   return p;
 }
 
+Program::Range Program::Compile(const Expr* e, int quantity) {
+  Compiler c(*this, quantity);
+  return c.Compile(e);
+}
+
 void Program::Build(bool with_checks) {
-  std::unique_ptr<Step> chunk;
-  std::string text;
-  auto flush = [&] {
-    if (!chunk) return;
-    if (chunk->compile_error.empty()) {
-      try {
-        chunk->parser.SetExpr(text);
-      } catch (const mu::ParserError& e) {
-        chunk->compile_error = e.GetMsg();
-      }
-    }
-    steps_.push_back(std::move(chunk));
-    text.clear();
-  };
   for (int qi : steps_idx_) {
     const Quantity& q = model_.quantities[static_cast<size_t>(qi)];
     if (q.kind != QuantityKind::kCalc) continue;  // inputs are set in the frame
-    if (!chunk) chunk = std::make_unique<Step>();
-    Translator t(model_, chunk->parser, frame_, &sites_, &table_sites_, this, qi, false);
-    const std::string var = fmt::format("q{}", qi);
-    std::string expr = t.Text(q.expr);
-    if (expr.size() + var.size() + 1 > kMaxText) {
-      // muParser reads at most 20 000 characters per expression.
-      flush();
-      chunk = std::make_unique<Step>();
-      chunk->quantities.push_back(qi);
-      chunk->compile_error = fmt::format(
-          "the expression is too long to compile ({} characters once translated; the limit is "
-          "{}): split it into named quantities",
-          expr.size(), kMaxText);
-      chunk->texts.push_back(std::move(expr));
-      flush();
-      continue;
-    }
-    if (!text.empty() && text.size() + expr.size() + var.size() + 2 > kMaxText) {
-      flush();
-      chunk = std::make_unique<Step>();
-      Translator t2(model_, chunk->parser, frame_, &sites_, &table_sites_, this, qi, false);
-      expr = t2.Text(q.expr);
-    }
-    chunk->parser.DefineVar(var, frame_ + qi);
-    chunk->quantities.push_back(qi);
-    chunk->texts.push_back(std::move(expr));
-    if (!text.empty()) text += ',';
-    text += var + "=" + chunk->texts.back();
-    if (chunk->quantities.size() >= kChunk) flush();
+    steps_.push_back(Step{qi, Compile(q.expr, qi)});
   }
-  flush();
   if (!with_checks) return;
-  std::unique_ptr<CheckChunk> cc;
-  text.clear();
-  auto flush_checks = [&] {
-    if (!cc || cc->slots.empty()) return;
-    try {
-      cc->parser.SetExpr(text);
-    } catch (const mu::ParserError&) {
-      cc->failed = true;  // compiled check by check on first use
-    }
-    check_chunks_.push_back(std::move(cc));
-    text.clear();
-  };
   for (size_t ci = 0; ci < model_.checks.size(); ++ci) {
     const CheckDef& c = model_.checks[ci];
-    if (!cc) cc = std::make_unique<CheckChunk>();
-    auto translate = [&](std::string* list) {
-      Translator t(model_, cc->parser, frame_, &sites_, &table_sites_, this, -1, false);
-      if (!c.has_sides) {
-        *list = t.Text(c.expr);
-        return;
-      }
-      *list = t.Text(c.expr->args[0]);
-      *list += ',';
-      *list += t.Text(c.expr->args[1]);
-    };
-    std::string list;
-    translate(&list);
-    // A check compiled alone also compiles its whole condition, which repeats
-    // each side up to twice plus a few dozen characters; a check that might
-    // come near muParser's length limit keeps that path, so that it breaks
-    // exactly as it always did.
-    if (2 * list.size() + 200 > kMaxText) {
-      checks_.push_back(CompileCheck(static_cast<int>(ci)));
-      continue;
+    CheckCode cc;
+    cc.check = static_cast<int>(ci);
+    cc.sides = c.has_sides;
+    if (c.has_sides) {
+      cc.a = Compile(c.expr->args[0], -1);
+      cc.b = Compile(c.expr->args[1], -1);
+    } else {
+      cc.a = Compile(c.expr, -1);
     }
-    if (!text.empty() && text.size() + list.size() + 1 > kMaxText) {
-      flush_checks();
-      cc = std::make_unique<CheckChunk>();
-      translate(&list);
-    }
-    cc->slots.push_back(CheckChunk::Slot{static_cast<int>(ci), c.has_sides, cc->values});
-    cc->values += c.has_sides ? 2 : 1;
-    if (!text.empty()) text += ',';
-    text += list;
-    if (cc->slots.size() >= kChunk) flush_checks();
+    checks_.push_back(cc);
   }
-  flush_checks();
 }
 
-// One check on parsers of its own (the whole condition, and both sides of a
-// comparison).
-std::unique_ptr<Program::CheckStep> Program::CompileCheck(int check) {
-  const CheckDef& c = model_.checks[static_cast<size_t>(check)];
-  auto step = std::make_unique<CheckStep>();
-  step->check = check;
-  Translator whole(model_, step->whole, frame_, &sites_, &table_sites_, this, -1, false);
-  try {
-    step->whole.SetExpr(whole.Text(c.expr));
-    if (c.has_sides) {
-      step->sides = true;
-      Translator l(model_, step->lhs, frame_, &sites_, &table_sites_, this, -1, false);
-      step->lhs.SetExpr(l.Text(c.expr->args[0]));
-      Translator r(model_, step->rhs, frame_, &sites_, &table_sites_, this, -1, false);
-      step->rhs.SetExpr(r.Text(c.expr->args[1]));
+int Program::AddExpression(const Expr* e) {
+  extra_.push_back(Compile(e, -1));
+  return static_cast<int>(extra_.size()) - 1;
+}
+
+double Program::Eval(int handle) { return Exec(extra_[static_cast<size_t>(handle)]); }
+
+// The interpreter: one switch per instruction over a stack that Build sized.
+double Program::Exec(Range r) {
+  const Ins* const code = code_.data();
+  double* const frame = frame_;
+  double* sp = stack_.data();  // the next free slot
+  for (uint32_t pc = r.begin; pc < r.end; ++pc) {
+    const Ins& in = code[pc];
+    switch (in.op) {
+      case Op::kConst:
+        *sp++ = in.c;
+        break;
+      case Op::kLoad:
+        *sp++ = frame[in.a];
+        break;
+      case Op::kNeg:
+        sp[-1] = -sp[-1];
+        break;
+      case Op::kAdd:
+        sp[-2] += sp[-1];
+        --sp;
+        break;
+      case Op::kSub:
+        sp[-2] -= sp[-1];
+        --sp;
+        break;
+      case Op::kMul:
+        sp[-2] *= sp[-1];
+        --sp;
+        break;
+      case Op::kDiv:
+        sp[-2] /= sp[-1];
+        --sp;
+        break;
+      case Op::kPow:
+        sp[-2] = std::pow(sp[-2], sp[-1]);
+        --sp;
+        break;
+      case Op::kSquare:
+        sp[-1] = sp[-1] * sp[-1];
+        break;
+      case Op::kCube:
+        sp[-1] = sp[-1] * sp[-1] * sp[-1];
+        break;
+      case Op::kFourth:
+        sp[-1] = sp[-1] * sp[-1] * sp[-1] * sp[-1];
+        break;
+      case Op::kLt:
+        sp[-2] = sp[-2] < sp[-1] ? 1.0 : 0.0;
+        --sp;
+        break;
+      case Op::kLe:
+        sp[-2] = sp[-2] <= sp[-1] ? 1.0 : 0.0;
+        --sp;
+        break;
+      case Op::kGt:
+        sp[-2] = sp[-2] > sp[-1] ? 1.0 : 0.0;
+        --sp;
+        break;
+      case Op::kGe:
+        sp[-2] = sp[-2] >= sp[-1] ? 1.0 : 0.0;
+        --sp;
+        break;
+      case Op::kNear:
+        sp[-2] = Near(sp[-2], sp[-1]);
+        --sp;
+        break;
+      case Op::kFar:
+        sp[-2] = 1.0 - Near(sp[-2], sp[-1]);
+        --sp;
+        break;
+      case Op::kNot:
+        sp[-1] = sp[-1] == 0.0 ? 1.0 : 0.0;
+        break;
+      case Op::kAnd:
+        sp[-2] = (sp[-2] != 0.0 && sp[-1] != 0.0) ? 1.0 : 0.0;
+        --sp;
+        break;
+      case Op::kOr:
+        sp[-2] = (sp[-2] != 0.0 || sp[-1] != 0.0) ? 1.0 : 0.0;
+        --sp;
+        break;
+      case Op::kFn:
+        sp[-1] = in.f(sp[-1]);
+        break;
+      case Op::kMin:
+        sp -= in.a - 1;
+        sp[-1] = Min(sp - 1, in.a);
+        break;
+      case Op::kMax:
+        sp -= in.a - 1;
+        sp[-1] = Max(sp - 1, in.a);
+        break;
+      case Op::kJumpIfZero:
+        if (*--sp == 0.0) pc = static_cast<uint32_t>(in.a) - 1;
+        break;
+      case Op::kJump:
+        pc = static_cast<uint32_t>(in.a) - 1;
+        break;
+      case Op::kCall: {
+        const int n = static_cast<int>(in.c);
+        sp -= n;
+        const double v = sites_[static_cast<size_t>(in.a)]->Call(sp);
+        *sp++ = v;
+        break;
+      }
+      case Op::kTable:
+        sp[-1] = table_sites_[static_cast<size_t>(in.a)]->At(sp[-1]);
+        break;
+      case Op::kAddLoad:
+        sp[-1] += frame[in.a];
+        break;
+      case Op::kSubLoad:
+        sp[-1] -= frame[in.a];
+        break;
+      case Op::kMulLoad:
+        sp[-1] *= frame[in.a];
+        break;
+      case Op::kDivLoad:
+        sp[-1] /= frame[in.a];
+        break;
+      case Op::kAddConst:
+        sp[-1] += in.c;
+        break;
+      case Op::kSubConst:
+        sp[-1] -= in.c;
+        break;
+      case Op::kMulConst:
+        sp[-1] *= in.c;
+        break;
+      case Op::kDivConst:
+        sp[-1] /= in.c;
+        break;
     }
-  } catch (const mu::ParserError&) {
-    step->broken = true;  // reported as not evaluated
   }
-  return step;
+  return sp[-1];
 }
 
 void Program::LoadGivens() {
@@ -451,40 +642,61 @@ void Program::LoadGivens() {
   }
 }
 
-std::string Program::ExpressionText(int quantity) const {
-  for (const auto& s : steps_) {
-    for (size_t i = 0; i < s->quantities.size(); ++i) {
-      if (s->quantities[i] == quantity) return s->texts[i];
+std::string Program::Disassemble(Range r) const {
+  std::string s;
+  for (uint32_t pc = r.begin; pc < r.end; ++pc) {
+    const Ins& in = code_[pc];
+    s += fmt::format("{:4} {}", pc - r.begin, OpName(in.op));
+    switch (in.op) {
+      case Op::kConst:
+      case Op::kAddConst:
+      case Op::kSubConst:
+      case Op::kMulConst:
+      case Op::kDivConst:
+        s += " " + units::FormatExact(in.c);
+        break;
+      case Op::kLoad:
+      case Op::kAddLoad:
+      case Op::kSubLoad:
+      case Op::kMulLoad:
+      case Op::kDivLoad:
+        s += " " + model_.quantities[static_cast<size_t>(in.a)].name;
+        break;
+      case Op::kMin:
+      case Op::kMax:
+        s += fmt::format(" {}", in.a);
+        break;
+      case Op::kJumpIfZero:
+      case Op::kJump:
+        s += fmt::format(" {}", static_cast<uint32_t>(in.a) - r.begin);
+        break;
+      case Op::kCall:
+        s += fmt::format(" {}", sites_[static_cast<size_t>(in.a)]->fn->name);
+        break;
+      case Op::kTable: {
+        const TableSite& t = *table_sites_[static_cast<size_t>(in.a)];
+        s += fmt::format(" {}.{}", t.table->name,
+                         t.table->table.columns[static_cast<size_t>(t.column)].name);
+        break;
+      }
+      default:
+        break;
     }
+    s += '\n';
+  }
+  return s;
+}
+
+std::string Program::CodeText(int quantity) const {
+  for (const Step& s : steps_) {
+    if (s.quantity == quantity) return Disassemble(s.code);
   }
   return "";
 }
 
-bool Program::EvalChunk(Step& s, std::string* error) {
-  if (!s.compile_error.empty()) {
-    *error = s.compile_error;
-    for (int q : s.quantities) frame_[static_cast<size_t>(q)] = kNaN;
-    return false;
-  }
-  try {
-    int n = 0;
-    s.parser.Eval(n);
-    return true;
-  } catch (const mu::ParserError& e) {
-    *error = e.GetMsg();
-    for (int q : s.quantities) frame_[static_cast<size_t>(q)] = kNaN;
-    return false;
-  }
-}
-
-void Program::ClearFrom(size_t chunk, int quantity) {
-  bool after = quantity < 0;
-  for (size_t c = chunk; c < steps_.size(); ++c) {
-    for (int q : steps_[c]->quantities) {
-      after = after || q == quantity;
-      if (after) frame_[static_cast<size_t>(q)] = kNaN;
-    }
-  }
+void Program::ClearFrom(size_t step) {
+  for (size_t i = step; i < steps_.size(); ++i)
+    frame_[static_cast<size_t>(steps_[i].quantity)] = kNaN;
 }
 
 bool Program::Run() {
@@ -493,37 +705,18 @@ bool Program::Run() {
   // Only the last run's messages are kept: a sweep runs a program a million
   // times, and a correlation that warns at every point must not pile up.
   recorded_.clear();
-  for (size_t c = 0; c < steps_.size(); ++c) {
-    Step* s = steps_[c].get();
+  for (size_t i = 0; i < steps_.size(); ++i) {
+    const Step& s = steps_[i];
     library_error_ = false;
-    const size_t rec_before = recorded_.size();
-    std::string internal;
-    if (!EvalChunk(*s, &internal)) {
-      failed_step_ = s->quantities.front();
-      ClearFrom(c + 1, -1);
-      failure_ = QuantityMessage{
-          QuantityMessage::Kind::kError,
-          fmt::format("cannot evaluate '{}': {}",
-                      model_.quantities[static_cast<size_t>(failed_step_)].name, internal),
-          {}};
+    const double v = Exec(s.code);
+    frame_[static_cast<size_t>(s.quantity)] = v;
+    if (!std::isfinite(v) || library_error_) {
+      failed_step_ = s.quantity;
+      failure_ = Explain(s.quantity);
+      // What comes after the failure was not evaluated at these inputs: NaN,
+      // not the last point's values.
+      ClearFrom(i);
       return false;
-    }
-    for (int q : s->quantities) {
-      bool lib_error = false;
-      if (library_error_) {
-        for (size_t r = rec_before; r < recorded_.size(); ++r) {
-          lib_error = lib_error || (recorded_[r].quantity == q &&
-                                    recorded_[r].message.kind == QuantityMessage::Kind::kError);
-        }
-      }
-      if (!std::isfinite(frame_[static_cast<size_t>(q)]) || lib_error) {
-        failed_step_ = q;
-        failure_ = Explain(q);
-        // What comes after the failure was not evaluated at these inputs
-        // (later chunks did not run at all): NaN, not the last point's values.
-        ClearFrom(c, q);
-        return false;
-      }
     }
   }
   return true;
@@ -534,46 +727,22 @@ void Program::RunAll(CaseResult* out) {
   out->ok.assign(n, true);
   out->messages.assign(n, {});
   recorded_.clear();
-  std::vector<int> lib_failed;
-  for (auto& s : steps_) {
+  for (const Step& s : steps_) {
+    const size_t qi = static_cast<size_t>(s.quantity);
     library_error_ = false;
-    const size_t rec_before = recorded_.size();
-    std::string internal;
-    const bool evaluated = EvalChunk(*s, &internal);
-    lib_failed.clear();
-    if (library_error_) {
-      for (size_t r = rec_before; r < recorded_.size(); ++r) {
-        if (recorded_[r].message.kind == QuantityMessage::Kind::kError) {
-          lib_failed.push_back(recorded_[r].quantity);
-        }
-      }
+    frame_[qi] = Exec(s.code);
+    bool inputs_ok = true;
+    for (int d : model_.quantities[qi].deps)
+      inputs_ok = inputs_ok && out->ok[static_cast<size_t>(d)];
+    if (!inputs_ok) {
+      out->ok[qi] = false;
+      frame_[qi] = kNaN;
+      continue;
     }
-    for (int q : s->quantities) {
-      const size_t qi = static_cast<size_t>(q);
-      bool inputs_ok = true;
-      for (int d : model_.quantities[qi].deps)
-        inputs_ok = inputs_ok && out->ok[static_cast<size_t>(d)];
-      const bool lib_error = std::find(lib_failed.begin(), lib_failed.end(), q) != lib_failed.end();
-      if (!inputs_ok) {
-        out->ok[qi] = false;
-        frame_[qi] = kNaN;
-        continue;
-      }
-      if (!evaluated) {
-        out->ok[qi] = false;
-        const Quantity& qq = model_.quantities[qi];
-        out->messages[qi].push_back(QuantityMessage{
-            QuantityMessage::Kind::kError,
-            fmt::format("cannot evaluate '{}': {}", qq.name,
-                        s->compile_error.empty() ? "internal error: " + internal : internal),
-            qq.expr != nullptr ? qq.expr->range : qq.range});
-        continue;
-      }
-      if (!std::isfinite(frame_[qi]) || lib_error) {
-        if (!lib_error) out->messages[qi].push_back(Explain(q));
-        out->ok[qi] = false;
-        frame_[qi] = kNaN;
-      }
+    if (!std::isfinite(frame_[qi]) || library_error_) {
+      if (!library_error_) out->messages[qi].push_back(Explain(s.quantity));
+      out->ok[qi] = false;
+      frame_[qi] = kNaN;
     }
   }
   for (auto& r : recorded_) {
@@ -588,67 +757,26 @@ void Program::RunAll(CaseResult* out) {
   recorded_.clear();
 }
 
-void Program::RunCheck(const CheckStep& s, CheckResult& r, int* failed) const {
-  const CheckDef& c = model_.checks[static_cast<size_t>(s.check)];
-  bool inputs_ok = true;
-  for (int d : c.deps) inputs_ok = inputs_ok && std::isfinite(frame_[static_cast<size_t>(d)]);
-  if (!inputs_ok || s.broken) return;
-  try {
-    if (s.sides) {
-      r.lhs_si = s.lhs.Eval();
-      r.rhs_si = s.rhs.Eval();
-      if (!JudgeSides(c.expr->kind, r.lhs_si, r.rhs_si, r)) return;
+void Program::RunChecks(std::vector<CheckResult>* out, int* failed) {
+  out->assign(model_.checks.size(), CheckResult{});
+  *failed = 0;
+  for (const CheckCode& cc : checks_) {
+    const CheckDef& c = model_.checks[static_cast<size_t>(cc.check)];
+    CheckResult& r = (*out)[static_cast<size_t>(cc.check)];
+    bool inputs_ok = true;
+    for (int d : c.deps) inputs_ok = inputs_ok && std::isfinite(frame_[static_cast<size_t>(d)]);
+    if (!inputs_ok) continue;
+    if (cc.sides) {
+      const double l = Exec(cc.a);
+      const double h = Exec(cc.b);
+      if (!JudgeSides(c.expr->kind, l, h, r)) continue;
     } else {
-      const double v = s.whole.Eval();
-      if (!std::isfinite(v)) return;
+      const double v = Exec(cc.a);
+      if (!std::isfinite(v)) continue;
       r.pass = v != 0.0;
     }
     r.evaluated = true;
     if (!r.pass) ++*failed;
-  } catch (const mu::ParserError&) {
-    r.evaluated = false;
-  }
-}
-
-void Program::RunChecks(std::vector<CheckResult>* out, int* failed) {
-  out->assign(model_.checks.size(), CheckResult{});
-  *failed = 0;
-  for (const auto& s : checks_) RunCheck(*s, (*out)[static_cast<size_t>(s->check)], failed);
-  for (const auto& chunk : check_chunks_) {
-    const double* v = nullptr;
-    if (!chunk->failed) {
-      try {
-        int n = 0;
-        v = chunk->parser.Eval(n);
-        chunk->failed = n != chunk->values;
-      } catch (const mu::ParserError&) {
-        chunk->failed = true;
-      }
-    }
-    if (chunk->failed) {
-      if (chunk->alone.empty()) {
-        for (const auto& slot : chunk->slots) chunk->alone.push_back(CompileCheck(slot.check));
-      }
-      for (const auto& s : chunk->alone)
-        RunCheck(*s, (*out)[static_cast<size_t>(s->check)], failed);
-      continue;
-    }
-    for (const auto& slot : chunk->slots) {
-      const CheckDef& c = model_.checks[static_cast<size_t>(slot.check)];
-      CheckResult& r = (*out)[static_cast<size_t>(slot.check)];
-      bool inputs_ok = true;
-      for (int d : c.deps) inputs_ok = inputs_ok && std::isfinite(frame_[static_cast<size_t>(d)]);
-      if (!inputs_ok) continue;
-      const double* x = v + slot.first;
-      if (slot.sides) {
-        if (!JudgeSides(c.expr->kind, x[0], x[1], r)) continue;
-      } else {
-        if (!std::isfinite(x[0])) continue;
-        r.pass = x[0] != 0.0;
-      }
-      r.evaluated = true;
-      if (!r.pass) ++*failed;
-    }
   }
 }
 

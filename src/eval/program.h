@@ -1,13 +1,15 @@
-// A compiled deck: each quantity's expression compiled once to a muParser
-// expression over SI doubles (unit factors folded to constants, library
-// functions bound as callbacks), run in dependency order over a frame of
-// values.  Re-running it with new input values parses nothing and allocates
-// nothing on the normal path; cases, sweeps and solves run it many times.
+// A compiled deck: each quantity's typed expression compiled once to code
+// for a small stack machine over SI doubles (unit factors folded to
+// constants, library functions bound as call sites), run in dependency order
+// over a frame of values.  Re-running it with new input values compiles
+// nothing and allocates nothing on the normal path; cases, sweeps and solves
+// run it many times.
 //
-// A Program binds its parsers to its own frame, so one thread uses one
-// Program; Clone() gives another thread its own.
+// A Program evaluates on its own stack and frame (or a frame it was given),
+// so one thread uses one Program; Clone() gives another thread its own.
 #pragma once
 
+#include <cstdint>
 #include <memory>
 #include <string>
 #include <vector>
@@ -62,7 +64,7 @@ class Program {
   void RunChecks(std::vector<CheckResult>* out, int* failed);
 
   // Sets every step's value in the frame to NaN (not evaluated).
-  void ClearSteps() { ClearFrom(0, -1); }
+  void ClearSteps() { ClearFrom(0); }
 
   int failed_step() const { return failed_step_; }
   const QuantityMessage& failure() const { return failure_; }
@@ -76,35 +78,47 @@ class Program {
   const std::vector<Recorded>& recorded() const { return recorded_; }
   void ClearRecorded() { recorded_.clear(); }
 
-  // The muParser text of a quantity's expression (for tests and debugging).
-  std::string ExpressionText(int quantity) const;
+  // The compiled code of a quantity's expression, one instruction per line
+  // (for tests and debugging).
+  std::string CodeText(int quantity) const;
 
-  // Internal, public only so that the translator in program.cpp can name them.
+  // Internal, public only so that the compiler in program.cpp can name them.
   struct CallSite;
   struct TableSite;
+  struct Ins;  // one instruction
+  struct Range {
+    uint32_t begin = 0, end = 0;  // code_[begin, end) leaves one value on the stack
+  };
+  class Compiler;
 
  private:
-  struct Step;
-  struct CheckStep;
-  struct CheckChunk;
+  struct Step {
+    int quantity = -1;
+    Range code;
+  };
+  struct CheckCode {
+    int check = -1;
+    bool sides = false;
+    Range a, b;  // both sides of a comparison, else a is the whole condition
+  };
 
   void Build(bool with_checks);
-  bool EvalChunk(Step& s, std::string* error);
-  // NaN for the steps of chunks[chunk…] from `quantity` on (all of them
-  // when quantity < 0).
-  void ClearFrom(size_t chunk, int quantity);
+  Range Compile(const Expr* e, int quantity);
+  double Exec(Range r);
+  // NaN for the steps from steps_[step] on.
+  void ClearFrom(size_t step);
   QuantityMessage Explain(int quantity) const;
-  std::unique_ptr<CheckStep> CompileCheck(int check);
-  void RunCheck(const CheckStep& s, CheckResult& r, int* failed) const;
+  std::string Disassemble(Range r) const;
 
   const Model& model_;
   std::vector<int> steps_idx_;
   std::vector<double> values_;  // the frame when the program owns it
   double* frame_ = nullptr;
-  std::vector<std::unique_ptr<Step>> extra_;
-  std::vector<std::unique_ptr<Step>> steps_;
-  std::vector<std::unique_ptr<CheckStep>> checks_;  // compiled alone (too long for a chunk)
-  std::vector<std::unique_ptr<CheckChunk>> check_chunks_;
+  std::vector<Ins> code_;      // every range's instructions, back to back
+  std::vector<double> stack_;  // deep enough for the deepest range
+  std::vector<Step> steps_;
+  std::vector<Range> extra_;
+  std::vector<CheckCode> checks_;
   std::vector<std::unique_ptr<CallSite>> sites_;
   std::vector<std::unique_ptr<TableSite>> table_sites_;
   std::vector<Recorded> recorded_;

@@ -362,7 +362,7 @@ TEST(Evaluator, ProgramRerunWithNewInputsGivesTheNewResults) {
   for (size_t i = 0; i < m.quantities.size(); ++i) {
     EXPECT_TRUE(SameBits(p.frame()[i], s.results().cases[0].values[i])) << m.quantities[i].name;
   }
-  const std::string text_before = p.ExpressionText(m.Find("T_h2"));
+  const std::string text_before = p.CodeText(m.Find("T_h2"));
 
   // New inputs: m_h = 0.62 kg/s, UA = 3.4 kW/K, T_c1 = 25 degC.
   const auto at = [&](const char* n) { return static_cast<size_t>(m.Find(n)); };
@@ -391,7 +391,7 @@ TEST(Evaluator, ProgramRerunWithNewInputsGivesTheNewResults) {
   EXPECT_TRUE(Near(checks[0].margin_si, 318.15 - h.T_h2));
   EXPECT_EQ(failed, h.T_h2 <= 318.15 ? 0 : 1);
   // Nothing was recompiled.
-  EXPECT_EQ(p.ExpressionText(m.Find("T_h2")), text_before);
+  EXPECT_EQ(p.CodeText(m.Find("T_h2")), text_before);
 
   // Back to the deck's givens: the first results again, exactly.
   p.LoadGivens();
