@@ -2,7 +2,6 @@
 
 #include <filesystem>
 #include <fstream>
-#include <sstream>
 
 #include <fmt/format.h>
 #include <nettle/sha2.h>
@@ -34,9 +33,21 @@ bool ReadWholeFile(const std::string& path, size_t max_bytes, std::string* out, 
     *why = "cannot be opened for reading";
     return false;
   }
-  std::ostringstream ss;
-  ss << in.rdbuf();
-  *out = ss.str();
+  // Read straight into the string at its known size (a stringstream copied
+  // the text twice more); a file that grows while being read (or reports
+  // size 0, as /proc files do) is read on to its end, up to max_bytes.
+  out->resize(static_cast<size_t>(size));
+  in.read(out->data(), static_cast<std::streamsize>(size));
+  out->resize(static_cast<size_t>(in.gcount()));
+  if (in.gcount() == static_cast<std::streamsize>(size)) {
+    char more[4096];
+    while (out->size() <= max_bytes && in.read(more, sizeof more).gcount() > 0)
+      out->append(more, static_cast<size_t>(in.gcount()));
+  }
+  if (out->size() > max_bytes) {
+    *why = fmt::format("the file grew past the limit of {} bytes while being read", max_bytes);
+    return false;
+  }
   return true;
 }
 
