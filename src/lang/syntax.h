@@ -4,12 +4,12 @@
 // the caller keeps alive (SourceFiles) for as long as the Deck lives.
 #pragma once
 
-#include <deque>
 #include <functional>
 #include <string>
 #include <string_view>
 #include <vector>
 
+#include "lang/chunked.h"
 #include "lang/diagnostics.h"
 
 namespace heatdeck {
@@ -126,7 +126,7 @@ struct Stmt {
 struct Deck {
   std::string_view file;
   std::vector<Stmt> stmts;
-  std::deque<Expr> exprs;  // arena; Expr::id indexes it
+  Chunked<Expr> exprs;  // arena; Expr::id indexes it
 
   Expr& NewExpr(ExprKind k, SourceRange r) {
     Expr& e = exprs.emplace_back();

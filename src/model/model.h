@@ -136,7 +136,7 @@ struct ExprInfo {
 // ExprInfo per expression node.  A std::unordered_map keyed by the node's
 // address cost a hash-node allocation and a cache miss per node, about a
 // tenth of checking a large deck; nodes already carry a dense id
-// (Expr::id, from the parser's arena), so the table is a deque indexed by
+// (Expr::id, from the parser's arena), so the table is a Chunked indexed by
 // that id.  The slot remembers its node, so a node whose id is taken by
 // another (templates are parsed into decks of their own and number from 0
 // again, and writers look up temporary nodes) lives in a hashed overflow
@@ -163,14 +163,15 @@ class ExprInfoTable {
   // Calls f(node, info) for every node with info, in no particular order.
   template <typename F>
   void ForEach(F&& f) const {
-    for (const Entry& x : slots_) {
+    for (size_t i = 0; i < slots_.size(); ++i) {
+      const Entry& x = slots_[i];
       if (x.first != nullptr) f(x.first, x.second);
     }
     for (const Entry& x : overflow_store_) f(x.first, x.second);
   }
 
  private:
-  std::deque<Entry> slots_;  // by Expr::id; first is null while unused
+  Chunked<Entry> slots_;  // by Expr::id; first is null while unused
   std::unordered_map<const Expr*, Entry*> overflow_;
   std::deque<Entry> overflow_store_;
 };
