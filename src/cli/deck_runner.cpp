@@ -1,9 +1,12 @@
 #include "cli/deck_runner.h"
 
+#include <filesystem>
 #include <ostream>
+#include <system_error>
 
 #include <fmt/format.h>
 
+#include "cli/heap.h"
 #include "eval/results.h"
 #include "lang/diagnostics.h"
 
@@ -39,6 +42,9 @@ void PrintQuantityWarnings(const Session& s, Streams io) {
 }  // namespace
 
 int LoadAndEvaluate(const std::string& path, const GlobalOptions& g, Streams io, Session* session) {
+  std::error_code ec;
+  const std::uintmax_t bytes = std::filesystem::file_size(path, ec);
+  if (!ec) PrepareHeapFor(bytes);
   if (!session->Load(path, g.session)) {
     PrintDiagnostics(*session, io);
     return kDeckErrors;
