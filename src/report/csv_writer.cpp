@@ -1,6 +1,8 @@
 #include "report/csv_writer.h"
 
 #include <cmath>
+#include <cstdint>
+#include <cstring>
 
 #include <fmt/compile.h>
 #include <fmt/format.h>
@@ -35,13 +37,28 @@ void CsvWriter::Header(const std::vector<std::string>& names,
 
 void CsvWriter::AppendRow(std::string* line, const double* values, size_t n,
                           const std::string& error) {
-  // Each number goes to a buffer on the stack, then into the line in one
-  // append: a sweep writes millions of them.
-  char number[40];
+  // The last number written in each column, with its text, per thread: a
+  // sweep's outer inputs hold their value for thousands of rows, and
+  // formatting is the larger part of writing a row.  The text is a function
+  // of the value's bits alone, so the memo is right whatever wrote before.
+  struct Last {
+    std::uint64_t bits = 0;
+    unsigned char size = 0;  // 0: nothing remembered
+    char text[39];
+  };
+  thread_local std::vector<Last> last;
+  if (last.size() < n) last.resize(n);
   for (size_t i = 0; i < n; ++i) {
     if (std::isfinite(values[i])) {
-      const char* end = fmt::format_to(number, FMT_COMPILE("{}"), values[i]);
-      line->append(number, static_cast<size_t>(end - number));
+      std::uint64_t bits;
+      std::memcpy(&bits, &values[i], sizeof bits);
+      Last& m = last[i];
+      if (m.size == 0 || m.bits != bits) {
+        const char* end = fmt::format_to(m.text, FMT_COMPILE("{}"), values[i]);
+        m.size = static_cast<unsigned char>(end - m.text);
+        m.bits = bits;
+      }
+      line->append(m.text, m.size);
     }
     *line += ',';
   }

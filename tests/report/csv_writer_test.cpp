@@ -71,5 +71,25 @@ TEST_F(CsvOutput, NegativeNumbersStayNumbersAndErrorsAreText) {
             "-0.001,,\"'-1 is outside the table, = sign\"\n");
 }
 
+// AppendRow remembers each column's last number and its text; a repeated
+// value, a changed one, a value gone missing and back, and the two zeros
+// (equal, but written differently) must each come out as if written fresh.
+// Expected text: fmt's shortest round-trip form (hand-derived).
+TEST(CsvAppendRow, RepeatedValuesAreWrittenAsFresh) {
+  std::string out;
+  const double rows[][2] = {{0.25, 1e-7}, {0.25, 1e-7}, {0.5, NAN}, {0.25, 1e-7},
+                            {0.0, 3.0},   {-0.0, 3.0},  {0.0, 3.0}};
+  for (const auto& r : rows) CsvWriter::AppendRow(&out, r, 2, "");
+  EXPECT_EQ(out,
+            "0.25,1e-07,\n0.25,1e-07,\n0.5,,\n0.25,1e-07,\n"
+            "0,3,\n-0,3,\n0,3,\n");
+  // A wider row after a narrower one, and a narrower one after it.
+  out.clear();
+  const double wide[] = {0.25, 7.5, 12.0};
+  CsvWriter::AppendRow(&out, wide, 3, "");
+  CsvWriter::AppendRow(&out, wide + 1, 1, "");
+  EXPECT_EQ(out, "0.25,7.5,12,\n7.5,\n");
+}
+
 }  // namespace
 }  // namespace heatdeck
