@@ -40,7 +40,11 @@ void PrepareHeapFor(std::uintmax_t deck_bytes) {
   mallopt(M_MMAP_MAX, 0);  // large blocks from the heap as well
   mallopt(M_TRIM_THRESHOLD, static_cast<int>(std::min<size_t>(2 * reserve, 1u << 30)));
   void* p = std::malloc(reserve);
-  if (p == nullptr) return;
+  if (p == nullptr) {  // no room for it: back to the defaults (mallopt(3))
+    mallopt(M_MMAP_MAX, 65536);
+    mallopt(M_TRIM_THRESHOLD, 128 * 1024);
+    return;
+  }
   const auto at = reinterpret_cast<std::uintptr_t>(p);
   const std::uintptr_t begin = (at + kHuge - 1) & ~(kHuge - 1);
   const std::uintptr_t end = (at + reserve) & ~(kHuge - 1);
