@@ -31,7 +31,7 @@ void PrepareHeapFor(std::uintmax_t deck_bytes) {
   // The heap below the first huge-page boundary, held for the process's
   // life so that the deck's allocations start on the boundary.  Volatile:
   // a pointer that is never read lets the compiler drop the malloc itself.
-  static void* volatile head = nullptr;
+  [[maybe_unused]] static void* volatile head = nullptr;
   static bool done = false;
   if (done || deck_bytes < kFrom) return;
   done = true;
