@@ -15,6 +15,7 @@
 #include "heatdeck/session.h"
 #include "lang/diagnostics.h"
 #include "model/model.h"
+#include "session_checks.h"
 
 namespace heatdeck {
 namespace {
@@ -67,25 +68,9 @@ constexpr double kTol = 1e-9;  // relative, as issue 2's "done when" asks for T_
          << actual << " differs from " << expected << " by more than " << kTol << " relative";
 }
 
-// Same bits, so that exactness is not hidden by a tolerance.
-::testing::AssertionResult SameBits(double actual, double expected) {
-  if (std::bit_cast<std::uint64_t>(actual) == std::bit_cast<std::uint64_t>(expected)) {
-    return ::testing::AssertionSuccess();
-  }
-  return ::testing::AssertionFailure() << std::hexfloat << actual << " is not " << expected;
-}
-
-std::string RenderAll(const Session& s) {
-  std::string out;
-  for (const Diagnostic* d : s.diagnostics().Sorted()) out += Render(*d, s.files(), false);
-  return out;
-}
-
-double Value(const Session& s, const std::string& name, size_t case_index = 0) {
-  const int i = s.model().Find(name);
-  EXPECT_GE(i, 0) << "no quantity " << name;
-  return s.results().cases.at(case_index).values.at(static_cast<size_t>(i));
-}
+using test::RenderAll;
+using test::SameBits;
+using test::Value;
 
 // The hand calculation of the first deck (SI units throughout).
 //   C_h = m_h * cp_h = 0.50 kg/s * 4190 J/(kg K)      = 2095 W/K

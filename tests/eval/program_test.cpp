@@ -15,28 +15,14 @@
 #include "heatdeck/session.h"
 #include "lang/diagnostics.h"
 #include "model/model.h"
+#include "session_checks.h"
 
 namespace heatdeck {
 namespace {
 
-::testing::AssertionResult SameBits(double actual, double expected) {
-  if (std::bit_cast<std::uint64_t>(actual) == std::bit_cast<std::uint64_t>(expected)) {
-    return ::testing::AssertionSuccess();
-  }
-  return ::testing::AssertionFailure() << std::hexfloat << actual << " is not " << expected;
-}
-
-std::string RenderAll(const Session& s) {
-  std::string out;
-  for (const Diagnostic* d : s.diagnostics().Sorted()) out += Render(*d, s.files(), false);
-  return out;
-}
-
-double Value(const Session& s, const std::string& name) {
-  const int i = s.model().Find(name);
-  EXPECT_GE(i, 0) << "no quantity " << name;
-  return s.results().cases.at(0).values.at(static_cast<size_t>(i));
-}
+using test::RenderAll;
+using test::SameBits;
+using test::Value;
 
 TEST(Program, OperatorsAndBuiltinsGiveWhatCppGives) {
   Session s;
