@@ -44,7 +44,8 @@ void PrintQuantityWarnings(const Session& s, Streams io) {
 int LoadAndEvaluate(const std::string& path, const GlobalOptions& g, Streams io, Session* session) {
   std::error_code ec;
   const std::uintmax_t bytes = std::filesystem::file_size(path, ec);
-  if (!ec) PrepareHeapFor(bytes);
+  // A deck over the size limit is refused by Load: nothing to prepare.
+  if (!ec && bytes <= g.session.max_file_bytes) PrepareHeapFor(bytes);
   if (!session->Load(path, g.session)) {
     PrintDiagnostics(*session, io);
     return kDeckErrors;
