@@ -616,7 +616,7 @@ class Builder {
     const ExprInfo& info = model_->info.at(e);
     std::string u;
     if (e->kind == ExprKind::kNumber && !e->unit.empty())
-      u = info.unit.text;
+      u = model_->LiteralUnit(info).text;
     else if (e->kind == ExprKind::kName && info.quantity >= 0) {
       const Quantity& q = model_->quantities[static_cast<size_t>(info.quantity)];
       if (q.display.dim == info.type.dim) u = q.display.text;
@@ -640,13 +640,18 @@ class Builder {
           });
           const std::string hint =
               word ? fmt::format("write {} * {} to multiply", e->text, e->unit) : std::string();
-          if (!ParseUnitAt(e->unit, e->unit_range, &info.unit, hint)) {
+          units::Unit unit;
+          if (!ParseUnitAt(e->unit, e->unit_range, &unit, hint)) {
             *bad = true;
             break;
           }
-          t.dim = info.unit.dim;
-          t.temp = info.unit.kind;
-          info.si = info.unit.ToSi(e->number);
+          t.dim = unit.dim;
+          t.temp = unit.kind;
+          info.si = unit.ToSi(e->number);
+          if (info.unit < 0) {  // typed once; a second visit keeps its slot
+            info.unit = static_cast<int>(model_->literal_units.size());
+            model_->literal_units.push_back(std::move(unit));
+          }
         } else {
           info.si = e->number;
         }
@@ -673,8 +678,8 @@ class Builder {
           const ExprInfo& li = model_->info.at(e->args[0]);
           info.literal = true;
           info.unit = li.unit;
-          info.si =
-              e->args[0]->unit.empty() ? -e->args[0]->number : li.unit.ToSi(-e->args[0]->number);
+          info.si = e->args[0]->unit.empty() ? -e->args[0]->number
+                                             : model_->LiteralUnit(li).ToSi(-e->args[0]->number);
           break;
         }
         if (t.temp == TempKind::kAbsolute) {
@@ -1101,8 +1106,8 @@ class Builder {
       if (q.kind == QuantityKind::kGiven && !bad) {
         const ExprInfo& li = model_->info.at(q.expr);
         q.given_si = li.si;
-        if (!li.unit.text.empty()) {
-          q.display = li.unit;
+        if (!model_->LiteralUnit(li).text.empty()) {
+          q.display = model_->LiteralUnit(li);
           q.display_explicit = true;
         } else {
           q.display = DefaultDisplay(q.type);
@@ -1142,8 +1147,9 @@ class Builder {
       return;
     }
     if (q.type.temp == TempKind::kEither) q.type.temp = lit.temp;
-    q.display = li.unit.text.empty() ? DefaultDisplay(q.type) : li.unit;
-    q.display_explicit = !li.unit.text.empty();
+    const units::Unit& written = model_->LiteralUnit(li);
+    q.display = written.text.empty() ? DefaultDisplay(q.type) : written;
+    q.display_explicit = !written.text.empty();
   }
 
   // A literal of a case, sweep or solve: its SI value and type; false after
@@ -1156,7 +1162,9 @@ class Builder {
     return true;
   }
 
-  const units::Unit& LiteralUnit(const Expr* e) const { return model_->info.at(e).unit; }
+  const units::Unit& LiteralUnit(const Expr* e) const {
+    return model_->LiteralUnit(model_->info.at(e));
+  }
 
   // Checks that a literal suits the given it overrides.
   bool FitsGiven(const Quantity& q, const Expr* lit, const Type& t, const char* what) {
@@ -1480,7 +1488,7 @@ class Builder {
     auto literal_unit = [&](const Expr* e, units::Unit* u) {
       const Expr* lit = e->kind == ExprKind::kNeg ? e->args[0] : e;
       if (lit->kind != ExprKind::kNumber || lit->unit.empty()) return false;
-      *u = model_->info.at(lit).unit;
+      *u = model_->LiteralUnit(model_->info.at(lit));
       return true;
     };
     units::Unit u;

@@ -181,7 +181,7 @@ std::string GivenLiteralText(const Model& m, const Quantity& q) {
   if (lit->kind != ExprKind::kNumber) return "";
   auto it = m.info.find(lit);
   if (it == m.info.end()) return "";
-  const units::Unit& u = it->second.unit;
+  const units::Unit& u = m.LiteralUnit(it->second);
   if (lit->unit.empty()) {
     if (q.display.factor != 1.0 || q.display.offset != 0.0) return "";
   } else if (u.factor != q.display.factor || u.offset != q.display.offset) {
@@ -583,7 +583,7 @@ std::vector<UnitUse> UnitsUsed(const Model& m) {
   // Literal units, visited in a stable order (the info map is unordered, so
   // only the set of spellings is taken from it).
   m.info.ForEach([&](const Expr* e, const ExprInfo& info) {
-    if (e->kind == ExprKind::kNumber && !e->unit.empty()) add(info.unit);
+    if (e->kind == ExprKind::kNumber && !e->unit.empty()) add(m.LiteralUnit(info));
   });
   std::vector<UnitUse> out;
   for (auto& [text, u] : by_text) out.push_back(std::move(u));

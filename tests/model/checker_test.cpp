@@ -121,6 +121,29 @@ TEST(Checker, CleanDeckHasNoDiagnostics) {
   }
 }
 
+// Literal units live apart from the per-node info (Model::literal_units):
+// a literal with a unit finds the unit it was written with, a negated one
+// shares it, a plain number has none.  Hand-derived: 12 mm = 0.012 m,
+// -5 degC = 268.15 K.
+TEST(Checker, LiteralsKeepTheUnitTheyWereWrittenWith) {
+  auto c = Check("given D = 12 mm\ngiven T = -5 degC\ngiven n = 3\n");
+  ASSERT_EQ(c->Text(), "");
+  const ExprInfo& d = c->model->Info(c->Q("D").expr);
+  EXPECT_EQ(c->model->LiteralUnit(d).text, "mm");
+  EXPECT_DOUBLE_EQ(d.si, 0.012);
+  const Expr* neg = c->Q("T").expr;
+  ASSERT_EQ(neg->kind, ExprKind::kNeg);
+  const ExprInfo& t = c->model->Info(neg);
+  EXPECT_EQ(t.unit, c->model->Info(neg->args[0]).unit);
+  EXPECT_EQ(c->model->LiteralUnit(t).text, "degC");
+  EXPECT_DOUBLE_EQ(t.si, 268.15);
+  EXPECT_EQ(c->Q("T").display.text, "degC");
+  const ExprInfo& n = c->model->Info(c->Q("n").expr);
+  EXPECT_EQ(n.unit, -1);
+  EXPECT_EQ(c->model->LiteralUnit(n).text, "");
+  EXPECT_EQ(c->model->literal_units.size(), 2u);
+}
+
 TEST(Checker, EmptyAndCommentOnlyDecksAreClean) {
   EXPECT_EQ(Errors(""), "");
   EXPECT_EQ(Errors("# nothing but a comment\n\n   # and another\n"), "");
