@@ -1106,8 +1106,9 @@ class Builder {
       if (q.kind == QuantityKind::kGiven && !bad) {
         const ExprInfo& li = model_->info.at(q.expr);
         q.given_si = li.si;
-        if (!model_->LiteralUnit(li).text.empty()) {
-          q.display = model_->LiteralUnit(li);
+        const units::Unit& written = model_->LiteralUnit(li);
+        if (!written.text.empty()) {
+          q.display = written;
           q.display_explicit = true;
         } else {
           q.display = DefaultDisplay(q.type);
@@ -1488,7 +1489,7 @@ class Builder {
     auto literal_unit = [&](const Expr* e, units::Unit* u) {
       const Expr* lit = e->kind == ExprKind::kNeg ? e->args[0] : e;
       if (lit->kind != ExprKind::kNumber || lit->unit.empty()) return false;
-      *u = model_->LiteralUnit(model_->info.at(lit));
+      *u = LiteralUnit(lit);
       return true;
     };
     units::Unit u;
